@@ -1,0 +1,97 @@
+import { dehydrate, HydrationBoundary, QueryClient } from '@tanstack/react-query';
+import type { Metadata } from 'next';
+import { Panel, PageHeader, Stat } from '~/components/ui';
+import { formatCount } from '~/lib/format';
+import { JOB_STATE_LABELS } from '~/lib/labels';
+import { shopsQuery } from '~/lib/queries/shops';
+import { oldestOpenJobs, jobCounts } from '~/server/queries/jobs';
+import { getShop, listShops } from '~/server/queries/shops';
+import type { Principal } from '~/server/principal';
+import { requirePagePrincipal } from '~/server/session';
+import { OpenJobsTable } from './_components/open-jobs-table';
+import { ShopsTable } from './_components/shops-table';
+
+export const metadata: Metadata = { title: 'Home' };
+export const dynamic = 'force-dynamic';
+
+export default async function HomePage() {
+  const principal = await requirePagePrincipal();
+  if (principal.scope.kind === 'shop') return <ShopHome principal={principal} shopId={principal.scope.shopId} />;
+  return <NetworkHome principal={principal} />;
+}
+
+async function NetworkHome({ principal }: { principal: Principal }) {
+  const queryClient = new QueryClient();
+  const shops = await listShops(principal);
+  queryClient.setQueryData(shopsQuery().queryKey, { shops });
+  const sum = (pick: (s: (typeof shops)[number]) => number) => shops.reduce((t, s) => t + pick(s), 0);
+  const regionName = principal.scope.kind === 'region' ? shops[0]?.region.name : undefined;
+  const title =
+    principal.role === 'auditor'
+      ? 'Shops to audit'
+      : regionName
+        ? `${regionName} today`
+        : 'The network today';
+  const lead =
+    principal.role === 'auditor'
+      ? 'Every shop in the network and the work passing through it. You score the jobs that an audit round assigns to you.'
+      : `${shops.length} shops in your view. Counts are live; "this week" runs from Monday in each shop's own time zone.`;
+  return (
+    <>
+      <PageHeader title={title} lead={lead} />
+      <dl className="mb-8 grid grid-cols-2 gap-4 lg:grid-cols-4">
+        <Stat label="Shops" value={formatCount(shops.length)} />
+        <Stat label="Open jobs" value={formatCount(sum((s) => s.openJobs))} hint="Checked in, on the bench or waiting on parts" />
+        <Stat label="Waiting on parts" value={formatCount(sum((s) => s.waitingOnParts))} />
+        <Stat label="Ready this week" value={formatCount(sum((s) => s.readyThisWeek))} />
+      </dl>
+      <Panel title="Shops" description="Open work per shop. Select a shop for its page.">
+        <HydrationBoundary state={dehydrate(queryClient)}>
+          <ShopsTable caption="Shops in your view with their open work" />
+        </HydrationBoundary>
+      </Panel>
+    </>
+  );
+}
+
+async function ShopHome({ principal, shopId }: { principal: Principal; shopId: number }) {
+  const asOf = new Date();
+  const shop = await getShop(principal, shopId);
+  const mine = principal.role === 'technician';
+  const [counts, open] = await Promise.all([
+    jobCounts(principal, shopId),
+    oldestOpenJobs(principal, shopId, { technicianId: mine ? principal.id : undefined, limit: 12 }),
+  ]);
+  const n = (k: keyof typeof JOB_STATE_LABELS) => formatCount(counts.byState[k] ?? 0);
+  return (
+    <>
+      <PageHeader
+        title={mine ? 'Your bench' : `${shop.name} today`}
+        lead={
+          mine
+            ? `Your open jobs at ${shop.name}, oldest first.`
+            : `${shop.region.name} · times shown in ${shop.timeZone.replace('_', ' ')}`
+        }
+      />
+      <dl className="mb-8 grid grid-cols-2 gap-4 lg:grid-cols-5">
+        <Stat label={JOB_STATE_LABELS.checked_in} value={n('checked_in')} />
+        <Stat label={JOB_STATE_LABELS.on_bench} value={n('on_bench')} />
+        <Stat label={JOB_STATE_LABELS.waiting_parts} value={n('waiting_parts')} />
+        <Stat label={JOB_STATE_LABELS.ready} value={n('ready')} />
+        <Stat label="Ready in the last 30 days" value={formatCount(counts.readyLast30Days)} />
+      </dl>
+      <Panel
+        title={mine ? 'Your open jobs' : 'Open jobs, oldest first'}
+        description={mine ? 'Jobs assigned to you that are not collected yet.' : 'The reels that have been in the shop longest.'}
+      >
+        <OpenJobsTable
+          jobs={open}
+          timeZone={shop.timeZone}
+          asOf={asOf}
+          caption={mine ? 'Your open jobs' : 'Open jobs, oldest first'}
+          showTechnician={!mine}
+        />
+      </Panel>
+    </>
+  );
+}

@@ -1,0 +1,73 @@
+import type { Metadata } from 'next';
+import { NotAllowed, PageHeader, Panel } from '~/components/ui';
+import { can, ROLE_LABELS } from '~/lib/permissions';
+import { listShops } from '~/server/queries/shops';
+import { listPeople } from '~/server/queries/users';
+import { requirePagePrincipal } from '~/server/session';
+
+export const metadata: Metadata = { title: 'Settings' };
+export const dynamic = 'force-dynamic';
+
+export default async function SettingsPage() {
+  const principal = await requirePagePrincipal();
+  if (!can(principal.role, 'settings:manage')) return <NotAllowed />;
+  const [people, shops] = await Promise.all([listPeople(), listShops(principal)]);
+  return (
+    <>
+      <PageHeader title="Settings" lead="The network's shops and the people who work in them." />
+      <div className="space-y-8">
+        <Panel title="Shops" description="Each shop's region and time zone; all times at a shop are shown in its zone.">
+          <div className="overflow-x-auto">
+            <table className="w-full min-w-[36rem] text-left">
+              <caption className="sr-only">Shops</caption>
+              <thead>
+                <tr className="border-b border-sand-300 text-sm text-slate-600">
+                  <th scope="col" className="py-2 pr-4 font-medium">Shop</th>
+                  <th scope="col" className="py-2 pr-4 font-medium">Region</th>
+                  <th scope="col" className="py-2 font-medium">Time zone</th>
+                </tr>
+              </thead>
+              <tbody>
+                {shops.map((s) => (
+                  <tr key={s.id} className="border-b border-sand-100">
+                    <th scope="row" className="py-3 pr-4 font-medium">{s.name}</th>
+                    <td className="py-3 pr-4">{s.region.name}</td>
+                    <td className="py-3">{s.timeZone}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </Panel>
+        <Panel title="People" description={`${people.length} accounts across all roles.`}>
+          <div className="overflow-x-auto">
+            <table className="w-full min-w-[40rem] text-left">
+              <caption className="sr-only">People</caption>
+              <thead>
+                <tr className="border-b border-sand-300 text-sm text-slate-600">
+                  <th scope="col" className="py-2 pr-4 font-medium">Name</th>
+                  <th scope="col" className="py-2 pr-4 font-medium">E-mail</th>
+                  <th scope="col" className="py-2 pr-4 font-medium">Role</th>
+                  <th scope="col" className="py-2 font-medium">Works at</th>
+                </tr>
+              </thead>
+              <tbody>
+                {people.map((p) => (
+                  <tr key={p.id} className="border-b border-sand-100">
+                    <th scope="row" className="py-3 pr-4 font-medium">
+                      {p.name}
+                      {!p.active && <span className="ml-2 text-sm text-slate-600">(inactive)</span>}
+                    </th>
+                    <td className="py-3 pr-4">{p.email}</td>
+                    <td className="py-3 pr-4">{ROLE_LABELS[p.role]}</td>
+                    <td className="py-3">{p.shopName ?? p.regionName ?? 'Whole network'}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </Panel>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,51 @@
+import type { Metadata } from 'next';
+import { redirect } from 'next/navigation';
+import { Logo } from '~/components/logo';
+import { getPrincipal } from '~/server/session';
+import { SignInForm } from './_components/sign-in-form';
+
+export const metadata: Metadata = { title: 'Sign in' };
+
+export default async function SignInPage() {
+  if (await getPrincipal()) redirect('/');
+  return (
+    <main className="grid min-h-screen lg:grid-cols-[minmax(0,5fr)_minmax(0,4fr)]">
+      <section className="relative hidden flex-col justify-between overflow-hidden bg-sea-800 p-12 text-sand-100 lg:flex">
+        <div className="flex items-center gap-3">
+          <Logo className="size-11" />
+          <span className="text-2xl font-semibold tracking-tight text-white">Reelwright</span>
+        </div>
+        <div className="max-w-md">
+          <p className="text-4xl leading-tight font-semibold text-white">
+            One standard at every bench.
+          </p>
+          <p className="mt-4 text-lg text-sand-200">
+            Check-ins, bench time, comebacks, audits and the month&rsquo;s figures for every shop in the
+            network, in one place.
+          </p>
+        </div>
+        <p className="text-sm text-sand-300">Saltwick &amp; Spool Reel Care · franchise network</p>
+        <svg
+          aria-hidden="true"
+          className="pointer-events-none absolute -right-24 -bottom-24 size-96 text-sea-700"
+          viewBox="0 0 200 200"
+        >
+          <circle cx="100" cy="100" r="90" fill="none" stroke="currentColor" strokeWidth="14" />
+          <circle cx="100" cy="100" r="58" fill="none" stroke="currentColor" strokeWidth="6" />
+          <circle cx="100" cy="100" r="14" fill="currentColor" />
+        </svg>
+      </section>
+      <section className="flex items-center justify-center p-6 sm:p-12">
+        <div className="w-full max-w-sm">
+          <div className="mb-8 flex items-center gap-3 lg:hidden">
+            <Logo />
+            <span className="text-xl font-semibold text-sea-800">Reelwright</span>
+          </div>
+          <h1 className="text-3xl font-semibold tracking-tight text-slate-900">Sign in</h1>
+          <p className="mt-2 text-slate-600">Use the e-mail address your shop or the network gave you.</p>
+          <SignInForm />
+        </div>
+      </section>
+    </main>
+  );
+}

@@ -1,0 +1,8 @@
+// GET /api/shops/{id} – one shop in the caller's scope (404 outside it)
+import { idParams } from '~/lib/validators/common';
+import { route } from '~/server/api';
+import { getShop } from '~/server/queries/shops';
+
+export const GET = route({ permission: 'shops:read', params: idParams }, async ({ principal, params }) =>
+  getShop(principal, params.id),
+);

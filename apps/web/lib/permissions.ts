@@ -1,0 +1,72 @@
+// Role → permission table: the single source of truth for what each role may do.
+export const ROLES = ['owner', 'regional_manager', 'shop_lead', 'technician', 'auditor'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const PERMISSIONS = [
+  'shops:read',
+  'network:read',
+  'jobs:read',
+  'jobs:write',
+  'comebacks:read',
+  'comebacks:review',
+  'audits:plan',
+  'audits:score',
+  'corrective-actions:manage',
+  'month-close:read',
+  'month-close:manage',
+  'reminders:send',
+  'users:manage',
+  'settings:manage',
+  'dev-mail:read',
+] as const;
+export type Permission = (typeof PERMISSIONS)[number];
+
+export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
+  owner: [
+    'shops:read',
+    'network:read',
+    'jobs:read',
+    'comebacks:read',
+    'comebacks:review',
+    'audits:plan',
+    'corrective-actions:manage',
+    'month-close:read',
+    'month-close:manage',
+    'users:manage',
+    'settings:manage',
+    'dev-mail:read',
+  ],
+  regional_manager: [
+    'shops:read',
+    'network:read',
+    'jobs:read',
+    'comebacks:read',
+    'comebacks:review',
+    'audits:plan',
+    'corrective-actions:manage',
+    'month-close:read',
+  ],
+  shop_lead: [
+    'shops:read',
+    'jobs:read',
+    'jobs:write',
+    'comebacks:read',
+    'comebacks:review',
+    'corrective-actions:manage',
+    'reminders:send',
+  ],
+  technician: ['shops:read', 'jobs:read', 'jobs:write', 'comebacks:read'],
+  auditor: ['shops:read', 'audits:score'],
+};
+
+export function can(role: Role, permission: Permission): boolean {
+  return ROLE_PERMISSIONS[role].includes(permission);
+}
+
+export const ROLE_LABELS: Record<Role, string> = {
+  owner: 'Owner',
+  regional_manager: 'Regional manager',
+  shop_lead: 'Shop lead',
+  technician: 'Technician',
+  auditor: 'Auditor',
+};

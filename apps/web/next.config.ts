@@ -1,0 +1,11 @@
+import type { NextConfig } from 'next';
+
+const config: NextConfig = {
+  transpilePackages: ['@reelwright/db', '@reelwright/metrics'],
+  // PGlite ships an 8.7 MB wasm that must stay on the server, not under /_next/static.
+  serverExternalPackages: ['@electric-sql/pglite', '@node-rs/argon2', 'pg'],
+  poweredByHeader: false,
+  typedRoutes: false,
+};
+
+export default config;
