@@ -41,7 +41,7 @@ export default tseslint.config(
       'react-hooks/rules-of-hooks': 'error',
       'react-hooks/exhaustive-deps': 'error',
     },
-    settings: { next: { rootDir: 'apps/web' } },
+    settings: { next: { rootDir: new URL('./apps/web/', import.meta.url).pathname } },
   },
   {
     // Environment variables are validated once, in apps/web/env.ts.
@@ -50,7 +50,11 @@ export default tseslint.config(
     rules: {
       'no-restricted-properties': [
         'error',
-        { object: 'process', property: 'env', message: 'Read environment variables through ~/env.' },
+        {
+          object: 'process',
+          property: 'env',
+          message: 'Read environment variables through ~/env.',
+        },
       ],
     },
   },
@@ -62,7 +66,10 @@ export default tseslint.config(
         'error',
         {
           patterns: [
-            { group: ['@reelwright/db*', 'drizzle-orm*', 'next', 'next/*', 'react', 'react-*'], message: 'metrics is pure: no database, no framework.' },
+            {
+              group: ['@reelwright/db*', 'drizzle-orm*', 'next', 'next/*', 'react', 'react-*'],
+              message: 'metrics is pure: no database, no framework.',
+            },
           ],
         },
       ],

@@ -31,7 +31,12 @@ function offenders(dir: string, forbidden: RegExp) {
 
 describe('package boundaries', () => {
   it('metrics imports no database, framework or app code', () => {
-    expect(offenders('packages/metrics/src', /^(@reelwright\/(db|web)|drizzle-orm|next|react|pg|@electric-sql)/)).toEqual([]);
+    expect(
+      offenders(
+        'packages/metrics/src',
+        /^(@reelwright\/(db|web)|drizzle-orm|next|react|pg|@electric-sql)/,
+      ),
+    ).toEqual([]);
   });
 
   it('db never imports the web app', () => {
@@ -42,14 +47,20 @@ describe('package boundaries', () => {
     const allowed = new Set(['apps/web/env.ts', 'apps/web/instrumentation.ts']);
     const readers = sources(path.join(root, 'apps/web'))
       .map((f) => path.relative(root, f))
-      .filter((f) => !allowed.has(f) && readFileSync(path.join(root, f), 'utf8').includes('process.env'));
+      .filter(
+        (f) => !allowed.has(f) && readFileSync(path.join(root, f), 'utf8').includes('process.env'),
+      );
     expect(readers).toEqual([]);
   });
 
   it('every route handler starts with a one-line comment naming its method and path', () => {
-    const handlers = sources(path.join(root, 'apps/web/app/api')).filter((f) => f.endsWith('route.ts'));
+    const handlers = sources(path.join(root, 'apps/web/app/api')).filter((f) =>
+      f.endsWith('route.ts'),
+    );
     expect(handlers.length).toBeGreaterThan(0);
-    const bad = handlers.filter((f) => !/^\/\/ (GET|POST|PUT|PATCH|DELETE)[ ,]/.test(readFileSync(f, 'utf8')));
+    const bad = handlers.filter(
+      (f) => !/^\/\/ (GET|POST|PUT|PATCH|DELETE)[ ,]/.test(readFileSync(f, 'utf8')),
+    );
     expect(bad.map((f) => path.relative(root, f))).toEqual([]);
   });
 });

@@ -3,5 +3,9 @@ import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
   resolve: { alias: { '~': fileURLToPath(new URL('./', import.meta.url)) } },
-  test: { include: ['**/*.test.ts'], exclude: ['node_modules/**', '.next/**'], environment: 'node' },
+  test: {
+    include: ['**/*.test.ts'],
+    exclude: ['node_modules/**', '.next/**'],
+    environment: 'node',
+  },
 });

@@ -44,20 +44,33 @@ test.describe('signed out', () => {
   });
 
   test('visitor – signs in with the standard next-auth flow over HTTP', async ({ request }) => {
-    const { csrfToken } = (await (await request.get('/api/auth/csrf')).json()) as { csrfToken: string };
+    const { csrfToken } = (await (await request.get('/api/auth/csrf')).json()) as {
+      csrfToken: string;
+    };
     const signIn = await request.post('/api/auth/callback/credentials', {
-      form: { csrfToken, email: 'lead.fennel@saltwick.test', password: DEMO_PASSWORD, json: 'true' },
+      form: {
+        csrfToken,
+        email: 'lead.fennel@saltwick.test',
+        password: DEMO_PASSWORD,
+        json: 'true',
+      },
     });
     expect(signIn.ok()).toBe(true);
     const me = await request.get('/api/me');
     expect(me.status()).toBe(200);
-    expect(await me.json()).toMatchObject({ email: 'lead.fennel@saltwick.test', role: 'shop_lead' });
+    expect(await me.json()).toMatchObject({
+      email: 'lead.fennel@saltwick.test',
+      role: 'shop_lead',
+    });
   });
 
   test('health – reports the driver and that migrations are applied', async ({ request }) => {
     const response = await request.get('/api/health');
     expect(response.status()).toBe(200);
-    expect(await response.json()).toMatchObject({ status: 'ok', database: { driver: 'pglite', pending: 0 } });
+    expect(await response.json()).toMatchObject({
+      status: 'ok',
+      database: { driver: 'pglite', pending: 0 },
+    });
   });
 });
 
@@ -70,13 +83,21 @@ test.describe('roles and scopes', () => {
       expect(response.headers()['content-type']).toContain('application/problem+json');
       expect(await response.json()).toMatchObject({ status: 403, type: '/problems/forbidden' });
       await page.goto('/settings');
-      await expect(page.getByRole('heading', { name: 'Not available for your role' })).toBeVisible();
-      await expect(page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Settings' })).toHaveCount(0);
+      await expect(
+        page.getByRole('heading', { name: 'Not available for your role' }),
+      ).toBeVisible();
+      await expect(
+        page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Settings' }),
+      ).toHaveCount(0);
     });
 
     test('technician – /api/me names their role and shop scope', async ({ request }) => {
       const me = await (await request.get('/api/me')).json();
-      expect(me).toMatchObject({ email: 'tech.marram@saltwick.test', role: 'technician', scope: { kind: 'shop' } });
+      expect(me).toMatchObject({
+        email: 'tech.marram@saltwick.test',
+        role: 'technician',
+        scope: { kind: 'shop' },
+      });
     });
   });
 

@@ -9,7 +9,9 @@ test.describe('landing pages', () => {
 
       test(`${name} – lands on their own page with real figures`, async ({ page }) => {
         await page.goto('/');
-        await expect(page.getByRole('heading', { level: 1, name: ACCOUNTS[name].landing })).toBeVisible();
+        await expect(
+          page.getByRole('heading', { level: 1, name: ACCOUNTS[name].landing }),
+        ).toBeVisible();
         // Every landing page shows live counts from the database: at least one figure above zero.
         const figures = await page.locator('dd.text-3xl').allInnerTexts();
         expect(figures.length).toBeGreaterThan(0);

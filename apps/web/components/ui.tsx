@@ -13,10 +13,18 @@ export function PageHeader(props: { title: string; lead?: ReactNode; actions?: R
   );
 }
 
-export function Panel(props: { title: string; children: ReactNode; description?: string; id?: string }) {
+export function Panel(props: {
+  title: string;
+  children: ReactNode;
+  description?: string;
+  id?: string;
+}) {
   const headingId = props.id ?? `panel-${props.title.toLowerCase().replace(/[^a-z0-9]+/g, '-')}`;
   return (
-    <section aria-labelledby={headingId} className="rounded-lg border border-sand-200 bg-white shadow-sm">
+    <section
+      aria-labelledby={headingId}
+      className="rounded-lg border border-sand-200 bg-white shadow-sm"
+    >
       <div className="border-b border-sand-200 px-5 py-4">
         <h2 id={headingId} className="text-lg font-semibold text-slate-900">
           {props.title}

@@ -2,14 +2,21 @@
 export class ProblemError extends Error {
   constructor(
     readonly status: number,
-    readonly problem: { title?: string; detail?: string; errors?: { field: string; message: string }[] },
+    readonly problem: {
+      title?: string;
+      detail?: string;
+      errors?: { field: string; message: string }[];
+    },
   ) {
     super(problem.detail ?? problem.title ?? `Request failed (${status})`);
   }
 }
 
 export async function fetchJson<T>(input: string, init?: RequestInit): Promise<T> {
-  const response = await fetch(input, { ...init, headers: { accept: 'application/json', ...init?.headers } });
+  const response = await fetch(input, {
+    ...init,
+    headers: { accept: 'application/json', ...init?.headers },
+  });
   if (!response.ok) {
     const problem = await response.json().catch(() => ({}));
     throw new ProblemError(response.status, problem as ProblemError['problem']);

@@ -1,4 +1,10 @@
-export const JOB_STATES = ['checked_in', 'on_bench', 'waiting_parts', 'ready', 'collected'] as const;
+export const JOB_STATES = [
+  'checked_in',
+  'on_bench',
+  'waiting_parts',
+  'ready',
+  'collected',
+] as const;
 export type JobState = (typeof JOB_STATES)[number];
 
 export const JOB_STATE_LABELS: Record<JobState, string> = {

@@ -17,6 +17,7 @@ const ITEMS: NavItem[] = [
 
 export function navFor(role: Role, shopId: number | null): NavItem[] {
   const items = ITEMS.filter((item) => can(role, item.permission));
-  if (shopId != null) items.splice(1, 0, { href: `/shops/${shopId}`, label: 'My shop', permission: 'shops:read' });
+  if (shopId != null)
+    items.splice(1, 0, { href: `/shops/${shopId}`, label: 'My shop', permission: 'shops:read' });
   return items;
 }

@@ -1,7 +1,14 @@
-import { type NextRequest } from 'next/server';
-import { z, type ZodType } from 'zod';
+import type { NextRequest } from 'next/server';
+import type { z, ZodType } from 'zod';
 import { can, type Permission } from '~/lib/permissions';
-import { ApiError, badRequest, fieldErrorsOf, forbidden, problemResponse, unauthorized } from './errors';
+import {
+  ApiError,
+  badRequest,
+  fieldErrorsOf,
+  forbidden,
+  problemResponse,
+  unauthorized,
+} from './errors';
 import type { Principal } from './principal';
 import { getPrincipal } from './session';
 
@@ -71,7 +78,13 @@ function parse(schema: ZodType | undefined, value: unknown, where: string): unkn
 
 export type ActionResult<T> =
   | { ok: true; data: T }
-  | { ok: false; status: number; title: string; detail?: string; errors?: { field: string; message: string }[] };
+  | {
+      ok: false;
+      status: number;
+      title: string;
+      detail?: string;
+      errors?: { field: string; message: string }[];
+    };
 
 /** The same order for server actions: authenticate, check, parse, act; failures come back as data. */
 export function action<S extends ZodType, T>(
@@ -84,7 +97,8 @@ export function action<S extends ZodType, T>(
       if (!principal) throw unauthorized();
       if (!can(principal.role, config.permission)) throw forbidden();
       const parsed = config.input.safeParse(input);
-      if (!parsed.success) throw badRequest('Some fields are not valid.', fieldErrorsOf(parsed.error));
+      if (!parsed.success)
+        throw badRequest('Some fields are not valid.', fieldErrorsOf(parsed.error));
       return { ok: true, data: await act({ principal, input: parsed.data }) };
     } catch (error) {
       if (error instanceof ApiError) {

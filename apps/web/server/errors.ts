@@ -23,7 +23,12 @@ export const unauthorized = () =>
 export const forbidden = (detail = 'Your role does not allow this.') =>
   new ApiError(403, 'forbidden', 'Not allowed', detail);
 export const notFound = (what = 'resource') =>
-  new ApiError(404, 'not-found', 'Not found', `No such ${what}, or it is outside what you can see.`);
+  new ApiError(
+    404,
+    'not-found',
+    'Not found',
+    `No such ${what}, or it is outside what you can see.`,
+  );
 export const conflict = (detail: string) => new ApiError(409, 'conflict', 'Conflict', detail);
 export const badRequest = (detail: string, fieldErrors?: FieldError[]) =>
   new ApiError(400, 'invalid-input', 'Invalid input', detail, fieldErrors);
@@ -45,7 +50,8 @@ export function problemResponse(error: unknown, instance?: string): Response {
   if (!known) {
     console.error('Unhandled error', error);
   }
-  const problem = known ?? new ApiError(500, 'internal', 'Internal error', 'Something went wrong on our side.');
+  const problem =
+    known ?? new ApiError(500, 'internal', 'Internal error', 'Something went wrong on our side.');
   const body: Record<string, unknown> = {
     type: `/problems/${problem.slug}`,
     title: problem.title,

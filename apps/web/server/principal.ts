@@ -1,9 +1,7 @@
 import type { Role } from '~/lib/permissions';
 
 export type Scope =
-  | { kind: 'network' }
-  | { kind: 'region'; regionId: number }
-  | { kind: 'shop'; shopId: number };
+  { kind: 'network' } | { kind: 'region'; regionId: number } | { kind: 'shop'; shopId: number };
 
 /** The signed-in caller, as loaded fresh from the database on every request. */
 export interface Principal {

@@ -9,7 +9,10 @@ import { SignOutButton } from './_components/sign-out-button';
 
 export default async function AppLayout({ children }: { children: ReactNode }) {
   const principal = await requirePagePrincipal();
-  const items = navFor(principal.role, principal.shopId).map(({ href, label }) => ({ href, label }));
+  const items = navFor(principal.role, principal.shopId).map(({ href, label }) => ({
+    href,
+    label,
+  }));
   return (
     <div className="min-h-screen">
       <a
@@ -24,7 +27,10 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
             <Logo className="size-9" />
             <span className="text-xl font-semibold tracking-tight">Reelwright</span>
           </Link>
-          <nav aria-label="Sections" className="order-last w-full sm:order-none sm:w-auto sm:flex-1">
+          <nav
+            aria-label="Sections"
+            className="order-last w-full sm:order-none sm:w-auto sm:flex-1"
+          >
             <NavLinks items={items} />
           </nav>
           <div className="ml-auto flex items-center gap-4">

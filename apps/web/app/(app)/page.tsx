@@ -16,7 +16,8 @@ export const dynamic = 'force-dynamic';
 
 export default async function HomePage() {
   const principal = await requirePagePrincipal();
-  if (principal.scope.kind === 'shop') return <ShopHome principal={principal} shopId={principal.scope.shopId} />;
+  if (principal.scope.kind === 'shop')
+    return <ShopHome principal={principal} shopId={principal.scope.shopId} />;
   return <NetworkHome principal={principal} />;
 }
 
@@ -24,7 +25,8 @@ async function NetworkHome({ principal }: { principal: Principal }) {
   const queryClient = new QueryClient();
   const shops = await listShops(principal);
   queryClient.setQueryData(shopsQuery().queryKey, { shops });
-  const sum = (pick: (s: (typeof shops)[number]) => number) => shops.reduce((t, s) => t + pick(s), 0);
+  const sum = (pick: (s: (typeof shops)[number]) => number) =>
+    shops.reduce((t, s) => t + pick(s), 0);
   const regionName = principal.scope.kind === 'region' ? shops[0]?.region.name : undefined;
   const title =
     principal.role === 'auditor'
@@ -41,7 +43,11 @@ async function NetworkHome({ principal }: { principal: Principal }) {
       <PageHeader title={title} lead={lead} />
       <dl className="mb-8 grid grid-cols-2 gap-4 lg:grid-cols-4">
         <Stat label="Shops" value={formatCount(shops.length)} />
-        <Stat label="Open jobs" value={formatCount(sum((s) => s.openJobs))} hint="Checked in, on the bench or waiting on parts" />
+        <Stat
+          label="Open jobs"
+          value={formatCount(sum((s) => s.openJobs))}
+          hint="Checked in, on the bench or waiting on parts"
+        />
         <Stat label="Waiting on parts" value={formatCount(sum((s) => s.waitingOnParts))} />
         <Stat label="Ready this week" value={formatCount(sum((s) => s.readyThisWeek))} />
       </dl>
@@ -82,7 +88,11 @@ async function ShopHome({ principal, shopId }: { principal: Principal; shopId: n
       </dl>
       <Panel
         title={mine ? 'Your open jobs' : 'Open jobs, oldest first'}
-        description={mine ? 'Jobs assigned to you that are not collected yet.' : 'The reels that have been in the shop longest.'}
+        description={
+          mine
+            ? 'Jobs assigned to you that are not collected yet.'
+            : 'The reels that have been in the shop longest.'
+        }
       >
         <OpenJobsTable
           jobs={open}

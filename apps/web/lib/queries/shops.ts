@@ -17,5 +17,7 @@ export const meQuery = () =>
   queryOptions({
     queryKey: ['me'] as const,
     queryFn: () =>
-      fetchJson<{ id: number; name: string; email: string; role: string; scope: unknown }>('/api/me'),
+      fetchJson<{ id: number; name: string; email: string; role: string; scope: unknown }>(
+        '/api/me',
+      ),
   });

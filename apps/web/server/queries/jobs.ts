@@ -49,7 +49,9 @@ export async function oldestOpenJobs(
       and(
         eq(jobs.shopId, shopId),
         inArray(jobs.state, OPEN_STATES),
-        options.technicianId === undefined ? undefined : eq(jobs.technicianId, options.technicianId),
+        options.technicianId === undefined
+          ? undefined
+          : eq(jobs.technicianId, options.technicianId),
       ),
     )
     .orderBy(asc(jobs.checkedInAt), asc(jobs.id))
@@ -75,7 +77,9 @@ export async function jobCounts(principal: Principal, shopId: number) {
     .from(jobs)
     .where(eq(jobs.shopId, shopId))
     .groupBy(jobs.state);
-  const byState = Object.fromEntries(rows.map((r) => [r.state, r.n])) as Partial<Record<JobState, number>>;
+  const byState = Object.fromEntries(rows.map((r) => [r.state, r.n])) as Partial<
+    Record<JobState, number>
+  >;
   const [recent] = await conn
     .select({ n: sql<number>`count(*)`.mapWith(Number) })
     .from(jobs)

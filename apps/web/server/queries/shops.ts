@@ -34,30 +34,41 @@ export async function listShops(principal: Principal, options: { id?: number } =
       timeZone: shops.timeZone,
       regionId: regions.id,
       regionName: regions.name,
-      openJobs: sql<number>`count(${jobs.id}) filter (where ${jobs.state} in ${openStates})`.mapWith(Number),
-      waitingOnParts: sql<number>`count(${jobs.id}) filter (where ${jobs.state} = 'waiting_parts')`.mapWith(Number),
-      readyForPickup: sql<number>`count(${jobs.id}) filter (where ${jobs.state} = 'ready')`.mapWith(Number),
-      readyThisWeek: sql<number>`count(${jobs.id}) filter (where ${jobs.readyAt} >= ${weekStart})`.mapWith(Number),
+      openJobs:
+        sql<number>`count(${jobs.id}) filter (where ${jobs.state} in ${openStates})`.mapWith(
+          Number,
+        ),
+      waitingOnParts:
+        sql<number>`count(${jobs.id}) filter (where ${jobs.state} = 'waiting_parts')`.mapWith(
+          Number,
+        ),
+      readyForPickup: sql<number>`count(${jobs.id}) filter (where ${jobs.state} = 'ready')`.mapWith(
+        Number,
+      ),
+      readyThisWeek:
+        sql<number>`count(${jobs.id}) filter (where ${jobs.readyAt} >= ${weekStart})`.mapWith(
+          Number,
+        ),
     })
     .from(shops)
     .innerJoin(regions, eq(regions.id, shops.regionId))
     .leftJoin(jobs, eq(jobs.shopId, shops.id))
-    .where(and(shopScope(principal), options.id === undefined ? undefined : eq(shops.id, options.id)))
+    .where(
+      and(shopScope(principal), options.id === undefined ? undefined : eq(shops.id, options.id)),
+    )
     .groupBy(shops.id, regions.id)
     .orderBy(asc(regions.name), asc(shops.name));
-  return rows.map(
-    (r): ShopSummary => ({
-      id: r.id,
-      name: r.name,
-      slug: r.slug,
-      timeZone: r.timeZone,
-      region: { id: r.regionId, name: r.regionName },
-      openJobs: r.openJobs,
-      waitingOnParts: r.waitingOnParts,
-      readyForPickup: r.readyForPickup,
-      readyThisWeek: r.readyThisWeek,
-    }),
-  );
+  return rows.map((r): ShopSummary => ({
+    id: r.id,
+    name: r.name,
+    slug: r.slug,
+    timeZone: r.timeZone,
+    region: { id: r.regionId, name: r.regionName },
+    openJobs: r.openJobs,
+    waitingOnParts: r.waitingOnParts,
+    readyForPickup: r.readyForPickup,
+    readyThisWeek: r.readyThisWeek,
+  }));
 }
 
 /** One shop inside the caller's scope; a shop outside it is reported as not found. */

@@ -17,21 +17,37 @@ export function OpenJobsTable(props: {
         <caption className="sr-only">{props.caption}</caption>
         <thead>
           <tr className="border-b border-sand-300 text-sm text-slate-600">
-            <th scope="col" className="py-2 pr-4 font-medium">Job</th>
-            <th scope="col" className="py-2 pr-4 font-medium">Customer and reel</th>
-            <th scope="col" className="py-2 pr-4 font-medium">Service</th>
-            <th scope="col" className="py-2 pr-4 font-medium">State</th>
+            <th scope="col" className="py-2 pr-4 font-medium">
+              Job
+            </th>
+            <th scope="col" className="py-2 pr-4 font-medium">
+              Customer and reel
+            </th>
+            <th scope="col" className="py-2 pr-4 font-medium">
+              Service
+            </th>
+            <th scope="col" className="py-2 pr-4 font-medium">
+              State
+            </th>
             {props.showTechnician && (
-              <th scope="col" className="py-2 pr-4 font-medium">Technician</th>
+              <th scope="col" className="py-2 pr-4 font-medium">
+                Technician
+              </th>
             )}
-            <th scope="col" className="py-2 pr-4 font-medium">Checked in</th>
-            <th scope="col" className="num py-2 font-medium">Days open</th>
+            <th scope="col" className="py-2 pr-4 font-medium">
+              Checked in
+            </th>
+            <th scope="col" className="num py-2 font-medium">
+              Days open
+            </th>
           </tr>
         </thead>
         <tbody>
           {props.jobs.map((job) => (
             <tr key={job.id} className="border-b border-sand-100 align-top">
-              <th scope="row" className="py-3 pr-4 font-medium tabular-nums">#{job.id}</th>
+              <th scope="row" className="py-3 pr-4 font-medium tabular-nums">
+                #{job.id}
+              </th>
               <td className="py-3 pr-4">
                 <span className="block font-medium">{job.customerName}</span>
                 <span className="block text-sm text-slate-600">{job.reel}</span>
@@ -45,7 +61,9 @@ export function OpenJobsTable(props: {
               {props.showTechnician && (
                 <td className="py-3 pr-4">{job.technicianName ?? 'Unassigned'}</td>
               )}
-              <td className="py-3 pr-4 whitespace-nowrap">{formatInZone(job.checkedInAt, props.timeZone)}</td>
+              <td className="py-3 pr-4 whitespace-nowrap">
+                {formatInZone(job.checkedInAt, props.timeZone)}
+              </td>
               <td className="num py-3">{daysBetween(job.checkedInAt, props.asOf)}</td>
             </tr>
           ))}

@@ -9,7 +9,12 @@ import { shopsQuery } from '~/lib/queries/shops';
 export function ShopsTable({ caption }: { caption: string }) {
   const { data, isPending, isError, error } = useQuery(shopsQuery());
   if (isPending) return <p className="text-slate-600">Loading shops…</p>;
-  if (isError) return <p role="alert" className="text-brick-700">Could not load shops: {error.message}</p>;
+  if (isError)
+    return (
+      <p role="alert" className="text-brick-700">
+        Could not load shops: {error.message}
+      </p>
+    );
   const shops = data.shops;
   const totals = shops.reduce(
     (t, s) => ({
@@ -26,19 +31,34 @@ export function ShopsTable({ caption }: { caption: string }) {
         <caption className="sr-only">{caption}</caption>
         <thead>
           <tr className="border-b border-sand-300 text-sm text-slate-600">
-            <th scope="col" className="py-2 pr-4 font-medium">Shop</th>
-            <th scope="col" className="py-2 pr-4 font-medium">Region</th>
-            <th scope="col" className="num py-2 pr-4 font-medium">Open jobs</th>
-            <th scope="col" className="num py-2 pr-4 font-medium">Waiting on parts</th>
-            <th scope="col" className="num py-2 pr-4 font-medium">Ready for pickup</th>
-            <th scope="col" className="num py-2 font-medium">Ready this week</th>
+            <th scope="col" className="py-2 pr-4 font-medium">
+              Shop
+            </th>
+            <th scope="col" className="py-2 pr-4 font-medium">
+              Region
+            </th>
+            <th scope="col" className="num py-2 pr-4 font-medium">
+              Open jobs
+            </th>
+            <th scope="col" className="num py-2 pr-4 font-medium">
+              Waiting on parts
+            </th>
+            <th scope="col" className="num py-2 pr-4 font-medium">
+              Ready for pickup
+            </th>
+            <th scope="col" className="num py-2 font-medium">
+              Ready this week
+            </th>
           </tr>
         </thead>
         <tbody>
           {shops.map((shop) => (
             <tr key={shop.id} className="border-b border-sand-100">
               <th scope="row" className="py-3 pr-4 font-medium">
-                <Link href={`/shops/${shop.id}`} className="text-sea-700 underline-offset-2 hover:underline">
+                <Link
+                  href={`/shops/${shop.id}`}
+                  className="text-sea-700 underline-offset-2 hover:underline"
+                >
                   {shop.name}
                 </Link>
               </th>

@@ -16,21 +16,32 @@ export default async function SettingsPage() {
     <>
       <PageHeader title="Settings" lead="The network's shops and the people who work in them." />
       <div className="space-y-8">
-        <Panel title="Shops" description="Each shop's region and time zone; all times at a shop are shown in its zone.">
+        <Panel
+          title="Shops"
+          description="Each shop's region and time zone; all times at a shop are shown in its zone."
+        >
           <div className="overflow-x-auto">
             <table className="w-full min-w-[36rem] text-left">
               <caption className="sr-only">Shops</caption>
               <thead>
                 <tr className="border-b border-sand-300 text-sm text-slate-600">
-                  <th scope="col" className="py-2 pr-4 font-medium">Shop</th>
-                  <th scope="col" className="py-2 pr-4 font-medium">Region</th>
-                  <th scope="col" className="py-2 font-medium">Time zone</th>
+                  <th scope="col" className="py-2 pr-4 font-medium">
+                    Shop
+                  </th>
+                  <th scope="col" className="py-2 pr-4 font-medium">
+                    Region
+                  </th>
+                  <th scope="col" className="py-2 font-medium">
+                    Time zone
+                  </th>
                 </tr>
               </thead>
               <tbody>
                 {shops.map((s) => (
                   <tr key={s.id} className="border-b border-sand-100">
-                    <th scope="row" className="py-3 pr-4 font-medium">{s.name}</th>
+                    <th scope="row" className="py-3 pr-4 font-medium">
+                      {s.name}
+                    </th>
                     <td className="py-3 pr-4">{s.region.name}</td>
                     <td className="py-3">{s.timeZone}</td>
                   </tr>
@@ -45,10 +56,18 @@ export default async function SettingsPage() {
               <caption className="sr-only">People</caption>
               <thead>
                 <tr className="border-b border-sand-300 text-sm text-slate-600">
-                  <th scope="col" className="py-2 pr-4 font-medium">Name</th>
-                  <th scope="col" className="py-2 pr-4 font-medium">E-mail</th>
-                  <th scope="col" className="py-2 pr-4 font-medium">Role</th>
-                  <th scope="col" className="py-2 font-medium">Works at</th>
+                  <th scope="col" className="py-2 pr-4 font-medium">
+                    Name
+                  </th>
+                  <th scope="col" className="py-2 pr-4 font-medium">
+                    E-mail
+                  </th>
+                  <th scope="col" className="py-2 pr-4 font-medium">
+                    Role
+                  </th>
+                  <th scope="col" className="py-2 font-medium">
+                    Works at
+                  </th>
                 </tr>
               </thead>
               <tbody>

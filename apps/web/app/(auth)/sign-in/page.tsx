@@ -20,8 +20,8 @@ export default async function SignInPage() {
             One standard at every bench.
           </p>
           <p className="mt-4 text-lg text-sand-200">
-            Check-ins, bench time, comebacks, audits and the month&rsquo;s figures for every shop in the
-            network, in one place.
+            Check-ins, bench time, comebacks, audits and the month&rsquo;s figures for every shop in
+            the network, in one place.
           </p>
         </div>
         <p className="text-sm text-sand-300">Saltwick &amp; Spool Reel Care · franchise network</p>
@@ -42,7 +42,9 @@ export default async function SignInPage() {
             <span className="text-xl font-semibold text-sea-800">Reelwright</span>
           </div>
           <h1 className="text-3xl font-semibold tracking-tight text-slate-900">Sign in</h1>
-          <p className="mt-2 text-slate-600">Use the e-mail address your shop or the network gave you.</p>
+          <p className="mt-2 text-slate-600">
+            Use the e-mail address your shop or the network gave you.
+          </p>
           <SignInForm />
         </div>
       </section>

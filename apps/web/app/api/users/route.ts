@@ -2,4 +2,6 @@
 import { route } from '~/server/api';
 import { listPeople } from '~/server/queries/users';
 
-export const GET = route({ permission: 'users:manage' }, async () => ({ users: await listPeople() }));
+export const GET = route({ permission: 'users:manage' }, async () => ({
+  users: await listPeople(),
+}));

@@ -38,7 +38,10 @@ export default async function ShopPage({ params }: { params: Promise<{ id: strin
           <Stat label={JOB_STATE_LABELS.ready} value={n('ready')} />
           <Stat label={JOB_STATE_LABELS.collected} value={n('collected')} hint="All time" />
         </dl>
-        <Panel title="Open jobs, oldest first" description="Reels not yet collected, with how long they have been in.">
+        <Panel
+          title="Open jobs, oldest first"
+          description="Reels not yet collected, with how long they have been in."
+        >
           <OpenJobsTable
             jobs={open}
             timeZone={shop.timeZone}

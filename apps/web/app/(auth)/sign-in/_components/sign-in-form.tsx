@@ -14,7 +14,10 @@ export function SignInForm() {
   async function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const form = new FormData(event.currentTarget);
-    const parsed = signInSchema.safeParse({ email: form.get('email'), password: form.get('password') });
+    const parsed = signInSchema.safeParse({
+      email: form.get('email'),
+      password: form.get('password'),
+    });
     if (!parsed.success) {
       const errors: Partial<Record<'email' | 'password', string>> = {};
       for (const issue of parsed.error.issues) {
@@ -42,7 +45,10 @@ export function SignInForm() {
   return (
     <form onSubmit={onSubmit} noValidate className="mt-8 space-y-5">
       {error && (
-        <p role="alert" className="rounded-md border border-brick-200 bg-brick-50 px-4 py-3 text-brick-800">
+        <p
+          role="alert"
+          className="rounded-md border border-brick-200 bg-brick-50 px-4 py-3 text-brick-800"
+        >
           {error}
         </p>
       )}

@@ -3,6 +3,7 @@ import { idParams } from '~/lib/validators/common';
 import { route } from '~/server/api';
 import { getShop } from '~/server/queries/shops';
 
-export const GET = route({ permission: 'shops:read', params: idParams }, async ({ principal, params }) =>
-  getShop(principal, params.id),
+export const GET = route(
+  { permission: 'shops:read', params: idParams },
+  async ({ principal, params }) => getShop(principal, params.id),
 );
