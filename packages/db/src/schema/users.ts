@@ -1,0 +1,40 @@
+import { sql } from 'drizzle-orm';
+import { boolean, check, index, integer, pgTable, text } from 'drizzle-orm/pg-core';
+import { createdAt, id, instant } from './columns';
+import { userRole } from './enums';
+import { regions, shops } from './shops';
+
+export const users = pgTable(
+  'users',
+  {
+    id: id(),
+    /** Stored lower-case so sign-in is case-insensitive and unique. */
+    email: text('email').notNull().unique(),
+    name: text('name').notNull(),
+    /** argon2id PHC string. */
+    passwordHash: text('password_hash').notNull(),
+    role: userRole('role').notNull(),
+    /** Scope of shop leads and technicians. */
+    shopId: integer('shop_id').references(() => shops.id),
+    /** Scope of regional managers. */
+    regionId: integer('region_id').references(() => regions.id),
+    /** Seeded demo account: the demo password is accepted only for these. */
+    isDemo: boolean('is_demo').notNull().default(false),
+    active: boolean('active').notNull().default(true),
+    lastSignInAt: instant('last_sign_in_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index('users_shop_id_idx').on(t.shopId),
+    index('users_region_id_idx').on(t.regionId),
+    check('users_email_lower_case', sql`${t.email} = lower(${t.email})`),
+    check(
+      'users_scope_matches_role',
+      sql`(${t.role} in ('shop_lead', 'technician') and ${t.shopId} is not null and ${t.regionId} is null)
+        or (${t.role} = 'regional_manager' and ${t.regionId} is not null and ${t.shopId} is null)
+        or (${t.role} in ('owner', 'auditor') and ${t.shopId} is null and ${t.regionId} is null)`,
+    ),
+  ],
+);
+export type User = typeof users.$inferSelect;
+export type NewUser = typeof users.$inferInsert;
