@@ -25,7 +25,9 @@ function interpolatedLimit(q: number, n: number, theta: number): number {
  * α = (P(R ≤ r_p) − p) / (P(R ≤ r_p) − P(R ≤ r_p − 1)), and the limit is (r_p − α) / n,
  * at p = (1 − coverage)/2 for the lower and p = (1 + coverage)/2 for the upper limit.
  *
- * Limits are proportions clamped to [0, 1]; trials = 0 gives [0, 1]. Throws RangeError on
+ * Limits are proportions clamped to [0, 1]; trials = 0 gives [0, 1], a target of 0 or 1 gives
+ * [target, target]. For a very small expected count (nθ well below 1) the interpolated upper
+ * limit can fall below θ, as the formula implies. Throws RangeError on
  * non-integer trials, a target outside [0, 1] or coverage outside (0, 1).
  */
 export function funnelLimits(trials: number, targetRate: number, coverage: number): Interval {
@@ -37,6 +39,8 @@ export function funnelLimits(trials: number, targetRate: number, coverage: numbe
     throw new RangeError(`coverage must be in (0, 1), got ${coverage}`);
   }
   if (trials === 0) return { lower: 0, upper: 1 };
+  // A certain outcome has no spread; the interpolation would push one limit off the target.
+  if (targetRate === 0 || targetRate === 1) return { lower: targetRate, upper: targetRate };
   const tail = (1 - coverage) / 2;
   const clamp = (x: number): number => Math.min(1, Math.max(0, x));
   return {
