@@ -10,6 +10,21 @@ const schema = z.object({
   PGLITE_DATA_DIR: z.string().min(1).optional(),
   NEXTAUTH_SECRET: z.string().min(16, 'NEXTAUTH_SECRET must be at least 16 characters').optional(),
   NEXTAUTH_URL: z.url().optional(),
+  // Object storage for photos. With S3_ENDPOINT set (the local fake, MinIO, …) requests go there
+  // path-style; without it the AWS endpoint of S3_REGION is used with the given credentials.
+  S3_ENDPOINT: z.url().optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_BUCKET: z.string().min(3).default('reelwright-photos'),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  // Outgoing mail: smtp:// or smtps:// with credentials in the URL; unset means mail stays queued.
+  SMTP_URL: z
+    .string()
+    .regex(/^smtps?:\/\//, 'SMTP_URL must be an smtp:// or smtps:// URL')
+    .optional(),
+  MAIL_FROM: z.string().min(3).default('Reelwright <no-reply@reelwright.test>'),
+  // The local SMTP catcher's HTTP side (scripts/fakes.ts); /dev/mail shows what it caught.
+  MAIL_CATCHER_URL: z.url().optional(),
 });
 
 const isBuild = process.env.NEXT_PHASE === 'phase-production-build';
@@ -21,6 +36,14 @@ function load() {
     PGLITE_DATA_DIR: process.env.PGLITE_DATA_DIR || undefined,
     NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET || undefined,
     NEXTAUTH_URL: process.env.NEXTAUTH_URL || undefined,
+    S3_ENDPOINT: process.env.S3_ENDPOINT || undefined,
+    S3_REGION: process.env.S3_REGION || undefined,
+    S3_BUCKET: process.env.S3_BUCKET || undefined,
+    S3_ACCESS_KEY_ID: process.env.S3_ACCESS_KEY_ID || undefined,
+    S3_SECRET_ACCESS_KEY: process.env.S3_SECRET_ACCESS_KEY || undefined,
+    SMTP_URL: process.env.SMTP_URL || undefined,
+    MAIL_FROM: process.env.MAIL_FROM || undefined,
+    MAIL_CATCHER_URL: process.env.MAIL_CATCHER_URL || undefined,
   });
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
