@@ -306,10 +306,13 @@ function instantMs(d: Date, name: string): number {
  * The calendar is treated as immutable: its open intervals are cached per calendar object.
  */
 export function businessMinutes(from: Date, to: Date, calendar: ShopCalendar): number {
-  const a = instantMs(from, 'from');
-  const b = instantMs(to, 'to');
+  return businessMinutesMs(instantMs(from, 'from'), instantMs(to, 'to'), calendar);
+}
+
+/** businessMinutes on epoch milliseconds, for callers that already hold numbers. */
+export function businessMinutesMs(a: number, b: number, calendar: ShopCalendar): number {
   const c = calendarCache(calendar);
-  if (b <= a) return 0;
+  if (!(b > a)) return 0;
   ensure(c, Math.floor(a / DAY), Math.floor(b / DAY));
   return (openBefore(c, b) - openBefore(c, a)) / MINUTE;
 }

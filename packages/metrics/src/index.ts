@@ -1,6 +1,7 @@
 export {
   businessDays,
   businessMinutes,
+  businessMinutesMs,
   civilDayNumber,
   localDayNumber,
   WEEKDAYS,

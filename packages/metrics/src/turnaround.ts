@@ -1,4 +1,4 @@
-import { businessMinutes, type ShopCalendar } from './business-time';
+import { businessMinutes, businessMinutesMs, type ShopCalendar } from './business-time';
 import { quantileSorted } from './quantile';
 
 /** A spell spent waiting on parts; `to: null` means still waiting (clipped at ready). */
@@ -37,24 +37,20 @@ export function jobTurnaround(job: TurnaroundInput, calendar: ShopCalendar): Job
     const b = Math.min(spell.to === null ? end : spell.to.getTime(), end);
     if (b > a) clipped.push([a, b]);
   }
-  clipped.sort((x, y) => x[0] - y[0]);
+  if (clipped.length > 1) clipped.sort((x, y) => x[0] - y[0]);
   let waitingMinutes = 0;
-  let curA = Number.NaN;
-  let curB = Number.NaN;
-  const flush = (): void => {
-    if (!Number.isNaN(curA)) {
-      waitingMinutes += businessMinutes(new Date(curA), new Date(curB), calendar);
-    }
-  };
+  let curA = 0;
+  let curB = -Infinity;
   for (const [a, b] of clipped) {
-    if (a <= curB) curB = Math.max(curB, b);
-    else {
-      flush();
-      curA = a;
-      curB = b;
+    if (a <= curB) {
+      curB = Math.max(curB, b);
+      continue;
     }
+    if (curB > curA) waitingMinutes += businessMinutesMs(curA, curB, calendar);
+    curA = a;
+    curB = b;
   }
-  flush();
+  if (curB > curA) waitingMinutes += businessMinutesMs(curA, curB, calendar);
   return { customerMinutes, benchMinutes: customerMinutes - waitingMinutes, waitingMinutes };
 }
 
