@@ -266,3 +266,34 @@ describe.each(Object.keys(changes))('businessMinutes against a luxon minute walk
     );
   });
 });
+
+describe('businessDays against luxon calendar days', () => {
+  it('counts the open local dates between two random instants', () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...Object.keys(changes)),
+        fc.integer({ min: Date.UTC(2024, 0, 1), max: Date.UTC(2025, 11, 1) }),
+        fc.integer({ min: 0, max: 40 * 24 * 60 }),
+        weeklyArb,
+        (zone, from, minutes, weekly) => {
+          const to = from + minutes * 60_000;
+          const cal: ShopCalendar = {
+            timeZone: zone,
+            weekly,
+            closedDates: ['2024-12-25', '2025-01-01'],
+          };
+          let expected = 0;
+          let day = DateTime.fromMillis(from, { zone }).startOf('day');
+          const last = DateTime.fromMillis(to, { zone }).startOf('day');
+          while (day < last) {
+            const spans = weekly[WEEKDAY_KEYS[day.weekday - 1]!] ?? [];
+            if (spans.length > 0 && !cal.closedDates.includes(day.toISODate() ?? '')) expected++;
+            day = day.plus({ days: 1 });
+          }
+          expect(businessDays(new Date(from), new Date(to), cal)).toBe(expected);
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+});

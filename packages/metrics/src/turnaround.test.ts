@@ -1,5 +1,6 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { type ShopCalendar } from './business-time';
+import { businessMinutes, type ShopCalendar } from './business-time';
 import { jobTurnaround, onTimeShare, turnaroundSummary } from './turnaround';
 
 const day = [{ open: '09:00', close: '17:00' }];
@@ -83,5 +84,50 @@ describe('onTimeShare', () => {
       ]),
     ).toEqual({ onTime: 2, total: 3, share: 2 / 3 });
     expect(onTimeShare([])).toEqual({ onTime: 0, total: 0, share: null });
+  });
+});
+
+describe('jobTurnaround on random spells', () => {
+  it('splits customer turnaround into bench and waiting, each within bounds', () => {
+    const hours = (h: number): Date => new Date(Date.UTC(2024, 2, 4, 12) + h * 3_600_000);
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 0, max: 400 }),
+        fc.integer({ min: 0, max: 400 }),
+        fc.array(
+          fc.tuple(
+            fc.integer({ min: -50, max: 450 }),
+            fc.integer({ min: 0, max: 200 }),
+            fc.boolean(),
+          ),
+          {
+            maxLength: 5,
+          },
+        ),
+        (checkIn, length, spells) => {
+          const result = jobTurnaround(
+            {
+              checkedInAt: hours(checkIn),
+              readyAt: hours(checkIn + length),
+              waitingSpans: spells.map(([from, span, open]) => ({
+                from: hours(from),
+                to: open ? null : hours(from + span),
+              })),
+            },
+            cal,
+          );
+          expect(result.customerMinutes).toBe(
+            businessMinutes(hours(checkIn), hours(checkIn + length), cal),
+          );
+          expect(result.waitingMinutes).toBeGreaterThanOrEqual(0);
+          expect(result.benchMinutes).toBeGreaterThanOrEqual(0);
+          expect(result.benchMinutes + result.waitingMinutes).toBeCloseTo(
+            result.customerMinutes,
+            9,
+          );
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });
