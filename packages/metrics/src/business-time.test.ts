@@ -160,6 +160,7 @@ describe('businessMinutes', () => {
       RangeError,
     );
     expect(() => businessMinutes(new Date(Number.NaN), d, harbor)).toThrow(RangeError);
+    expect(() => businessMinutes(d, at('+020240-01-01T00:00:00Z'), harbor)).toThrow(RangeError);
     expect(() =>
       businessMinutes(d, d, { ...harbor, weekly: { mon: [{ open: '17:00', close: '09:00' }] } }),
     ).toThrow(RangeError);

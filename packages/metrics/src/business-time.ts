@@ -286,9 +286,14 @@ function openBefore(c: CalendarCache, t: number): number {
   return sum;
 }
 
+// Far-off instants are almost always bad data; building days out to them would cost memory.
+const EARLIEST = Date.UTC(1800, 0, 1);
+const LATEST = Date.UTC(2400, 0, 1);
+
 function instantMs(d: Date, name: string): number {
   const t = d.getTime();
   if (Number.isNaN(t)) throw new RangeError(`${name} is not a valid date`);
+  if (t < EARLIEST || t >= LATEST) throw new RangeError(`${name} is outside the years 1800–2399`);
   return t;
 }
 
@@ -300,8 +305,9 @@ function instantMs(d: Date, name: string): number {
  * Across a spring-forward change a span loses the skipped wall-clock time; across a fall-back
  * change the repeated wall-clock time counts twice (the shop is open through both). Overlapping
  * spans of one day count once. Minutes are exact (fractional when instants carry seconds).
- * Returns 0 when `to <= from` or no span is open. Throws RangeError on an invalid date, zone,
- * "HH:mm" time or span that does not close after it opens.
+ * Returns 0 when `to <= from` or no span is open. Throws RangeError on an invalid date or one
+ * outside 1800–2399 (bad data), an unknown zone, a malformed "HH:mm" time or a span that does
+ * not close after it opens.
  *
  * The calendar is treated as immutable: its open intervals are cached per calendar object.
  */
@@ -313,6 +319,8 @@ export function businessMinutes(from: Date, to: Date, calendar: ShopCalendar): n
 export function businessMinutesMs(a: number, b: number, calendar: ShopCalendar): number {
   const c = calendarCache(calendar);
   if (!(b > a)) return 0;
+  if (a < EARLIEST || b >= LATEST)
+    throw new RangeError('instants must be within the years 1800–2399');
   ensure(c, Math.floor(a / DAY), Math.floor(b / DAY));
   return (openBefore(c, b) - openBefore(c, a)) / MINUTE;
 }
