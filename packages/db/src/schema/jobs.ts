@@ -106,10 +106,7 @@ export const jobEvents = pgTable(
     userId: integer('user_id').references(() => users.id),
     note: text('note'),
   },
-  (t) => [
-    index('job_events_job_id_at_idx').on(t.jobId, t.at),
-    index('job_events_to_state_at_idx').on(t.toState, t.at),
-  ],
+  (t) => [index('job_events_job_id_at_idx').on(t.jobId, t.at)],
 );
 export type JobEvent = typeof jobEvents.$inferSelect;
 export type NewJobEvent = typeof jobEvents.$inferInsert;

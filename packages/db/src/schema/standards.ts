@@ -1,4 +1,12 @@
-import { boolean, index, integer, pgTable, text, uniqueIndex } from 'drizzle-orm/pg-core';
+import {
+  boolean,
+  index,
+  integer,
+  pgTable,
+  primaryKey,
+  text,
+  uniqueIndex,
+} from 'drizzle-orm/pg-core';
 import { createdAt, id, instant } from './columns';
 import { reelKind, stepGroup } from './enums';
 import { jobs } from './jobs';
@@ -47,10 +55,10 @@ export const serviceStandardSteps = pgTable(
 export type ServiceStandardStep = typeof serviceStandardSteps.$inferSelect;
 export type NewServiceStandardStep = typeof serviceStandardSteps.$inferInsert;
 
+/** One row per ticked step of a job; unticking deletes it. */
 export const checklistTicks = pgTable(
   'checklist_ticks',
   {
-    id: id(),
     jobId: integer('job_id')
       .notNull()
       .references(() => jobs.id, { onDelete: 'cascade' }),
@@ -61,10 +69,8 @@ export const checklistTicks = pgTable(
     tickedAt: instant('ticked_at').notNull().defaultNow(),
     note: text('note'),
   },
-  (t) => [
-    uniqueIndex('checklist_ticks_job_step_uq').on(t.jobId, t.stepId),
-    index('checklist_ticks_step_id_idx').on(t.stepId),
-  ],
+  // Keyed by job and step: the most numerous table, so no surrogate id and no extra index.
+  (t) => [primaryKey({ columns: [t.jobId, t.stepId] })],
 );
 export type ChecklistTick = typeof checklistTicks.$inferSelect;
 export type NewChecklistTick = typeof checklistTicks.$inferInsert;
