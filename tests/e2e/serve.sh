@@ -1,11 +1,31 @@
 #!/usr/bin/env bash
 # The server the end-to-end tests run against: a fresh embedded database seeded with the demo
-# network, served by `next start` (the production build).
+# network, the local S3 and SMTP fakes on free ports, served by `next start` (the production build).
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 port="${E2E_PORT:-3100}"
 data_dir="$(mktemp -d /tmp/reelwright-e2e.XXXXXX)"
-trap 'rm -rf "$data_dir"' EXIT
+fakes_pid=""
+cleanup() {
+  if [ -n "$fakes_pid" ]; then kill "$fakes_pid" 2>/dev/null || true; wait "$fakes_pid" 2>/dev/null || true; fi
+  rm -rf "$data_dir"
+}
+trap cleanup EXIT
+
+# Free ports, so several checkouts' test servers can run side by side.
+FAKES_S3_PORT=0 FAKES_SMTP_PORT=0 FAKES_MAIL_HTTP_PORT=0 FAKES_S3_DIR="$data_dir/s3" \
+  FAKES_ENV_FILE="$data_dir/fakes.env" node apps/web/scripts/fakes.mjs &
+fakes_pid=$!
+for _ in $(seq 1 150); do
+  [ -s "$data_dir/fakes.env" ] && break
+  kill -0 "$fakes_pid" 2>/dev/null || { echo "✗ the storage and mail fakes did not start" >&2; exit 1; }
+  sleep 0.1
+done
+[ -s "$data_dir/fakes.env" ] || { echo "✗ the storage and mail fakes did not report ready" >&2; exit 1; }
+set -a
+# shellcheck disable=SC1091
+source "$data_dir/fakes.env"
+set +a
 export PGLITE_DATA_DIR="$data_dir/pglite"
 export NEXTAUTH_SECRET="end-to-end-tests-only-secret-0123456789"
 export NEXTAUTH_URL="http://127.0.0.1:$port"

@@ -33,6 +33,31 @@ pnpm --filter @reelwright/web build >/tmp/reelwright-demo-build.log 2>&1 || {
 echo "› preparing the database"
 pnpm --silent --filter @reelwright/db seed
 
+# Photos and e-mail: real storage / SMTP when configured, otherwise the local fakes.
+[ -n "${S3_ENDPOINT:-}${S3_ACCESS_KEY_ID:-}" ] && export FAKES_S3=0
+[ -n "${SMTP_URL:-}" ] && export FAKES_SMTP=0
+if [ "${FAKES_S3:-1}" != 0 ] || [ "${FAKES_SMTP:-1}" != 0 ]; then
+  echo "› starting the local storage and mail fakes"
+  fakes_env="$(mktemp /tmp/reelwright-fakes.XXXXXX)"
+  rm -f "$fakes_env"
+  FAKES_S3_DIR="${FAKES_S3_DIR:-$REELWRIGHT_ROOT/data/s3}" FAKES_ENV_FILE="$fakes_env" \
+    node apps/web/scripts/fakes.mjs &
+  fakes_pid=$!
+  for _ in $(seq 1 150); do
+    [ -s "$fakes_env" ] && break
+    kill -0 "$fakes_pid" 2>/dev/null || {
+      echo "✗ the fakes did not start (a port in use? set FAKES_S3_PORT, FAKES_SMTP_PORT, FAKES_MAIL_HTTP_PORT)"
+      exit 1
+    }
+    sleep 0.1
+  done
+  set -a
+  # shellcheck disable=SC1090
+  source "$fakes_env"
+  set +a
+  rm -f "$fakes_env"
+fi
+
 cat <<MSG
 
   Reelwright is starting on http://127.0.0.1:$PORT
@@ -48,6 +73,8 @@ cat <<MSG
     auditor@saltwick.test         auditor
 
   Data: ${DATABASE_URL:+PostgreSQL at DATABASE_URL}${DATABASE_URL:-embedded PGlite in $PGLITE_DATA_DIR} (kept between runs)
+  Photos: ${S3_ENDPOINT:-AWS S3, region ${S3_REGION:-us-east-1}}, bucket ${S3_BUCKET:-reelwright-photos}
+  E-mail: ${MAIL_CATCHER_URL:+caught locally; the owner sees it at http://127.0.0.1:$PORT/dev/mail}${MAIL_CATCHER_URL:-sent through SMTP_URL}
   Stop with Ctrl-C.
 
 MSG
