@@ -5,11 +5,12 @@ import S3rver from 's3rver';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { checkPhoto, SNIFF_BYTES } from './photos/check';
 import { pngImage } from './photos/test-images';
+import type * as StorageModule from './storage';
 
 // The storage module against the same S3-compatible fake the project starts for development.
 let server: S3rver;
 let folder: string;
-let storage: typeof import('./storage');
+let storage: typeof StorageModule;
 
 beforeAll(async () => {
   folder = mkdtempSync(path.join(tmpdir(), 'reelwright-s3-test-'));
