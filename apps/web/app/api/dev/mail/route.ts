@@ -1,0 +1,16 @@
+// GET /api/dev/mail – what the local SMTP catcher received (newest first) and the outbox counts; development and tests
+import { z } from 'zod';
+import { route } from '~/server/api';
+import { notFound } from '~/server/errors';
+import { catcherConfigured, caughtMessages, outboxSummary } from '~/server/mail/catcher';
+
+export const dynamic = 'force-dynamic';
+
+export const GET = route(
+  { permission: 'dev-mail:read', query: z.object({ to: z.email().optional() }) },
+  async ({ query }) => {
+    if (!catcherConfigured()) throw notFound('mail catcher');
+    const [messages, outbox] = await Promise.all([caughtMessages(query.to), outboxSummary()]);
+    return { messages, outbox };
+  },
+);
