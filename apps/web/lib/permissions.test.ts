@@ -10,6 +10,7 @@ const expected: Record<Permission, Record<Role, boolean>> = {
   'network:read': row(Y, Y, N, N, N),
   'jobs:read': row(Y, Y, Y, Y, N),
   'jobs:write': row(N, N, Y, Y, N),
+  'jobs:import': row(N, N, Y, N, N),
   'comebacks:read': row(Y, Y, Y, Y, N),
   'comebacks:review': row(Y, Y, Y, N, N),
   'audits:read': row(Y, Y, Y, N, Y),
