@@ -10,8 +10,9 @@ function toJson(value: unknown): unknown {
 
 /**
  * Inserts rows keyed by the table's TypeScript property names, `chunk` rows per statement.
- * Each statement sends one jsonb parameter unpacked by jsonb_to_recordset, so a batch of
- * thousands of rows stays one round trip and far below the bind-parameter limit.
+ * Each statement sends one array per column, unpacked by unnest (or, for tables with array
+ * columns, one jsonb document unpacked by jsonb_to_recordset), so a batch of thousands of rows
+ * is one round trip and stays far below the bind-parameter limit.
  */
 export async function bulkInsert(
   db: Executor,
@@ -25,18 +26,37 @@ export async function bulkInsert(
     columns.map(([, c]) => sql.identifier(c.name)),
     sql`, `,
   );
-  const defs = sql.raw(columns.map(([, c]) => `"${c.name}" ${c.getSQLType()}`).join(', '));
+  const types = columns.map(([, c]) => c.getSQLType());
+  const viaJson = types.some((t) => t.endsWith(']'));
   for (let i = 0; i < rows.length; i += chunk) {
-    const json = JSON.stringify(
-      rows.slice(i, i + chunk).map((row) => {
-        const out: Record<string, unknown> = {};
-        for (const [key, column] of columns) out[column.name] = toJson(row[key]);
-        return out;
-      }),
-    );
-    await db.execute(
-      sql`insert into ${table} (${names}) select ${names} from jsonb_to_recordset(${json}::jsonb) as x(${defs})`,
-    );
+    const slice = rows.slice(i, i + chunk);
+    if (viaJson) {
+      const json = JSON.stringify(
+        slice.map((row) => {
+          const out: Record<string, unknown> = {};
+          for (const [key, column] of columns) out[column.name] = toJson(row[key]);
+          return out;
+        }),
+      );
+      const defs = sql.raw(columns.map(([, c], k) => `"${c.name}" ${types[k]}`).join(', '));
+      await db.execute(
+        sql`insert into ${table} (${names}) select ${names} from jsonb_to_recordset(${json}::jsonb) as x(${defs})`,
+      );
+    } else {
+      // Sent as text[] and cast in SQL: drivers serialize text arrays alike, but not enum arrays.
+      const arrays = columns.map(([key], k) => {
+        const values = slice.map((row) => {
+          const v = row[key] ?? null;
+          if (v === null) return null;
+          if (v instanceof Date) return v.toISOString();
+          return typeof v === 'object' ? JSON.stringify(v) : String(v);
+        });
+        return sql`${sql.param(values)}::text[]::${sql.raw(types[k]!)}[]`;
+      });
+      await db.execute(
+        sql`insert into ${table} (${names}) select * from unnest(${sql.join(arrays, sql`, `)})`,
+      );
+    }
   }
   return rows.length;
 }

@@ -93,7 +93,7 @@ export const SHOPS: readonly ShopDef[] = [
     waitChance: 1,
     waitMedian: 700,
     dragSkip: 0.02,
-    comebackCounted: 0.035,
+    comebackCounted: 0.04,
   },
   {
     slug: 'marram-point',
@@ -131,7 +131,7 @@ export const SHOPS: readonly ShopDef[] = [
     waitChance: 1,
     waitMedian: 650,
     dragSkip: 0.02,
-    comebackCounted: 0.033,
+    comebackCounted: 0.038,
   },
   {
     slug: 'skerry-wharf',
@@ -164,7 +164,7 @@ export const SHOPS: readonly ShopDef[] = [
     waitChance: 1.7,
     waitMedian: 2900,
     dragSkip: 0.02,
-    comebackCounted: 0.036,
+    comebackCounted: 0.042,
   },
   {
     slug: 'ternhollow-lake',
@@ -202,7 +202,7 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 800,
     dragSkip: 0.03,
     // Comebacks are placed by quota per quarter (see simulate.ts), not by this chance.
-    comebackCounted: 0.13,
+    comebackCounted: 0.115,
   },
   {
     slug: 'fennel-cove',
@@ -234,7 +234,7 @@ export const SHOPS: readonly ShopDef[] = [
     waitChance: 1,
     waitMedian: 650,
     dragSkip: 0.02,
-    comebackCounted: 0.034,
+    comebackCounted: 0.039,
   },
   {
     slug: 'lantern-inlet',
@@ -281,7 +281,7 @@ export const SHOPS: readonly ShopDef[] = [
     waitChance: 1,
     waitMedian: 700,
     dragSkip: 0.02,
-    comebackCounted: 0.037,
+    comebackCounted: 0.043,
   },
   {
     slug: 'brackwater-flats',
@@ -314,7 +314,7 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 650,
     // Skips drag-stack steps, and its comebacks trace back to them.
     dragSkip: 0.42,
-    comebackCounted: 0.04,
+    comebackCounted: 0.035,
   },
 ];
 

@@ -158,10 +158,10 @@ const BENCH_MEDIAN: Record<ServiceType, number> = {
   parts_install: 28,
 };
 const PROMISE_DAYS: Record<ServiceType, number> = {
-  tune_up: 4,
-  overhaul: 6,
-  repair: 6,
-  parts_install: 3,
+  tune_up: 1.5,
+  overhaul: 3,
+  repair: 3,
+  parts_install: 1,
 };
 const WAIT_CHANCE: Record<ServiceType, number> = {
   tune_up: 0.05,
@@ -482,10 +482,10 @@ export function generate(options: GenerateOptions): SeedData {
     const technicianId = rng.weighted(shop.benchStaff, (s) => s.weight).id;
     const counterId = rng.pick(shop.staffIds);
     const events: SimEvent[] = [{ from: null, to: 'checked_in', at: t0, userId: counterId }];
-    const promiseDays = PROMISE_DAYS[serviceType] * (load > 1.5 ? 1.4 : 1);
+    const promiseDays = PROMISE_DAYS[serviceType] * (load > 1.5 ? 2.2 : load > 1.1 ? 1.4 : 1);
     const promisedAt = addBusinessMinutes(tl, t0, promiseDays * tl.minutesPerOpenDay);
 
-    const queueMedian = comeback ? 90 : shop.def.queueMedian * Math.pow(load, 0.9);
+    const queueMedian = comeback ? 90 : shop.def.queueMedian * load * load;
     const t1 = addBusinessMinutes(tl, t0, clamp(rng.logNormal(queueMedian, 0.6), 10, 6000));
     events.push({ from: 'checked_in', to: 'on_bench', at: t1, userId: technicianId });
 
@@ -679,7 +679,7 @@ export function generate(options: GenerateOptions): SeedData {
       counted = job.shop.quotaCredit >= 1;
       if (counted) job.shop.quotaCredit -= 1;
     } else if (def.slug === 'brackwater-flats') {
-      counted = rng.chance(job.skipped.has('drag.washers') ? 0.24 : def.comebackCounted);
+      counted = rng.chance(job.skipped.has('drag.washers') ? 0.19 : def.comebackCounted);
     } else {
       counted = rng.chance(def.comebackCounted);
     }
