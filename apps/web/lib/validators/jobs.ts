@@ -1,0 +1,206 @@
+import { z } from 'zod';
+import { JOB_STATES, type JobState } from '../labels';
+import { idParam } from './common';
+
+export const SERVICE_TYPES = ['tune_up', 'overhaul', 'repair', 'parts_install'] as const;
+export type ServiceType = (typeof SERVICE_TYPES)[number];
+export const REEL_KINDS = [
+  'spinning',
+  'baitcasting',
+  'conventional',
+  'lever_drag',
+  'fly',
+  'spincast',
+] as const;
+export type ReelKind = (typeof REEL_KINDS)[number];
+
+/** The only moves a job may make; anything else is refused with 409. */
+export const NEXT_STATES: Record<JobState, readonly JobState[]> = {
+  checked_in: ['on_bench'],
+  on_bench: ['waiting_parts', 'ready'],
+  waiting_parts: ['on_bench'],
+  ready: ['collected'],
+  collected: [],
+};
+
+export const OPEN_STATES: readonly JobState[] = [
+  'checked_in',
+  'on_bench',
+  'waiting_parts',
+  'ready',
+];
+
+export const canMove = (from: JobState, to: JobState) => NEXT_STATES[from].includes(to);
+
+const localDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-04-01')
+  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Not a calendar date');
+
+const optionalText = (max: number, label: string) =>
+  z
+    .string()
+    .trim()
+    .max(max, `${label} must be at most ${max} characters`)
+    .optional()
+    .transform((s) => (s ? s : undefined));
+
+const SORTS = ['checkedInAt', 'promisedAt', 'stateChangedAt', 'customer', 'id'] as const;
+export type JobSort = (typeof SORTS)[number];
+export const PAGE_SIZES = [25, 50, 100] as const;
+
+/** `GET /api/jobs` query; the bench list keeps the same keys in its URL. */
+export const jobListQuery = z
+  .object({
+    page: z.coerce.number().int().min(1, 'Pages start at 1').max(100_000).default(1),
+    pageSize: z.coerce
+      .number()
+      .int()
+      .refine((n) => (PAGE_SIZES as readonly number[]).includes(n), 'Page size is 25, 50 or 100')
+      .default(25),
+    sort: z.enum(SORTS).default('checkedInAt'),
+    dir: z.enum(['asc', 'desc']).default('desc'),
+    /** Comma-separated states; none means every state. */
+    state: z
+      .string()
+      .optional()
+      .transform((s, ctx) => {
+        if (!s) return undefined;
+        const list = s.split(',').filter(Boolean);
+        for (const v of list) {
+          if (!(JOB_STATES as readonly string[]).includes(v)) {
+            ctx.addIssue({ code: 'custom', message: `Unknown state "${v}"` });
+            return z.NEVER;
+          }
+        }
+        return list as JobState[];
+      }),
+    shopId: idParam.optional(),
+    technicianId: idParam.optional(),
+    service: z.enum(SERVICE_TYPES).optional(),
+    from: localDate.optional(),
+    to: localDate.optional(),
+    /** Only jobs that have sat in their current (open) state longer than this many days. */
+    waitingDays: z.coerce.number().int().min(1, 'At least 1 day').max(365).optional(),
+    q: optionalText(100, 'Search'),
+  })
+  .refine((v) => !v.from || !v.to || v.from <= v.to, {
+    message: 'The end date must not be before the start date',
+    path: ['to'],
+  });
+export type JobListQuery = z.infer<typeof jobListQuery>;
+export type JobListParams = z.input<typeof jobListQuery>;
+
+export const customerInput = z.object({
+  name: z.string().trim().min(1, 'Enter the customer’s name').max(120),
+  phone: optionalText(40, 'Phone').refine(
+    (s) => !s || /^[0-9+() .-]{5,40}$/.test(s),
+    'Digits, spaces and + ( ) - only',
+  ),
+  email: z
+    .union([z.literal(''), z.email('Enter a valid e-mail address').trim().toLowerCase()])
+    .optional()
+    .transform((s) => (s ? s : undefined)),
+  reminderConsent: z.boolean().default(false),
+});
+
+export const reelInput = z.object({
+  kind: z.enum(REEL_KINDS, { error: 'Choose the kind of reel' }),
+  maker: z.string().trim().min(1, 'Enter the maker').max(80),
+  model: z.string().trim().min(1, 'Enter the model').max(80),
+  size: optionalText(20, 'Size'),
+  bearingCount: z
+    .number({ error: 'A whole number' })
+    .int('A whole number')
+    .min(0, 'Cannot be negative')
+    .max(40, 'At most 40')
+    .optional(),
+  gearRatio: optionalText(10, 'Gear ratio').refine(
+    (s) => !s || /^\d{1,2}(\.\d{1,2})?:1$/.test(s),
+    'Write it as printed, e.g. 6.2:1',
+  ),
+  useProfile: z.enum(['light', 'heavy']).default('light'),
+  water: z.enum(['salt', 'fresh']).default('fresh'),
+});
+
+export const checkInInput = z.object({
+  customer: z.union([z.object({ id: idParam }), customerInput]),
+  reel: z.union([z.object({ id: idParam }), reelInput]),
+  serviceType: z.enum(SERVICE_TYPES, { error: 'Choose a service' }),
+  complaint: optionalText(2000, 'Complaint'),
+  condition: optionalText(2000, 'Condition'),
+  technicianId: idParam.optional(),
+  /** Local date in the shop's zone; the promise is the shop's closing time that day. */
+  promisedOn: localDate,
+});
+export type CheckInInput = z.infer<typeof checkInInput>;
+
+export const jobPatch = z
+  .object({
+    findings: z.string().trim().max(4000).nullable().optional(),
+    complaint: z.string().trim().max(2000).nullable().optional(),
+    condition: z.string().trim().max(2000).nullable().optional(),
+    technicianId: idParam.nullable().optional(),
+    promisedOn: localDate.optional(),
+    /** Sets the labour charge: bench time × posted rate, or the service's flat price. */
+    labourBasis: z.enum(['bench_time', 'flat_price']).optional(),
+    discountCents: z
+      .number({ error: 'Cents as a whole number' })
+      .int('Cents as a whole number')
+      .min(0, 'Cannot be negative')
+      .max(10_000_000)
+      .optional(),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change');
+export type JobPatch = z.infer<typeof jobPatch>;
+
+export const transitionInput = z.object({
+  to: z.enum(JOB_STATES, { error: 'Unknown state' }),
+  /** Why required checklist steps are unticked when marking ready. */
+  reason: optionalText(1000, 'Reason'),
+  note: optionalText(500, 'Note'),
+});
+export type TransitionInput = z.infer<typeof transitionInput>;
+
+export const benchSessionInput = z.union([
+  z.object({ action: z.enum(['start', 'stop']) }),
+  z.object({
+    minutes: z
+      .number({ error: 'Minutes as a whole number' })
+      .int('Minutes as a whole number')
+      .min(1, 'At least 1 minute')
+      .max(720, 'At most 720 minutes (12 hours) at once'),
+    note: optionalText(200, 'Note'),
+  }),
+]);
+export type BenchSessionInput = z.infer<typeof benchSessionInput>;
+
+export const partInput = z.object({
+  name: z.string().trim().min(1, 'Enter the part’s name').max(120),
+  partNumber: optionalText(40, 'Part number'),
+  quantity: z
+    .number({ error: 'A whole number' })
+    .int('A whole number')
+    .min(1, 'At least 1')
+    .max(999, 'At most 999'),
+  unitPriceCents: z
+    .number({ error: 'Enter a price' })
+    .int('Whole cents')
+    .min(0, 'Cannot be negative')
+    .max(1_000_000, 'At most $10,000'),
+});
+export type PartInput = z.infer<typeof partInput>;
+
+export const partParams = z.object({ id: idParam, partId: idParam });
+
+export const checklistInput = z.object({
+  stepIds: z.array(idParam).max(200),
+});
+export type ChecklistInput = z.infer<typeof checklistInput>;
+
+/** "12.50" or "12" → 1250 cents; undefined when it is not a money amount. */
+export function parseMoney(text: string): number | undefined {
+  const m = /^\s*\$?\s*(\d{1,7})(?:\.(\d{1,2}))?\s*$/.exec(text);
+  if (!m) return undefined;
+  return Number(m[1]) * 100 + Number((m[2] ?? '0').padEnd(2, '0'));
+}
