@@ -1,0 +1,9 @@
+// GET /api/network/trends – monthly comeback p-chart, turnaround or revenue per bench hour for every shop in scope
+import { networkTrendsQuery } from '~/lib/validators/network';
+import { route } from '~/server/api';
+import { networkTrends } from '~/server/queries/network';
+
+export const GET = route(
+  { permission: 'network:read', query: networkTrendsQuery },
+  async ({ principal, query }) => networkTrends(principal, query),
+);

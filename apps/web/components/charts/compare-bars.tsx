@@ -1,0 +1,27 @@
+'use client';
+
+import { BarChart } from '@tremor/react';
+
+/** Horizontal bars comparing one figure across groups (Tremor). */
+export function CompareBars(props: {
+  data: { label: string; value: number | null }[];
+  seriesName: string;
+  valueFormatter: (v: number) => string;
+  colour?: string;
+}) {
+  const rows = props.data.map((d) => ({ label: d.label, [props.seriesName]: d.value ?? 0 }));
+  return (
+    <BarChart
+      className="h-56"
+      data={rows}
+      index="label"
+      categories={[props.seriesName]}
+      colors={[props.colour ?? 'sea-600']}
+      layout="vertical"
+      valueFormatter={props.valueFormatter}
+      showLegend={false}
+      yAxisWidth={150}
+      showAnimation={false}
+    />
+  );
+}

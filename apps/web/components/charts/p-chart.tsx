@@ -1,0 +1,80 @@
+'use client';
+
+import {
+  CartesianGrid,
+  ComposedChart,
+  Line,
+  ResponsiveContainer,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from 'recharts';
+
+export interface PChartDatum {
+  label: string;
+  rate: number | null;
+  lower: number | null;
+  upper: number | null;
+  signal: 'above' | 'below' | null;
+}
+
+export const P_CHART_COLOURS = { rate: '#1f514a', centre: '#475569', limit: '#853223', signal: '#a03c28' };
+
+const pct = (x: number) => `${(x * 100).toFixed(0)}%`;
+
+/**
+ * A p-chart: the monthly rate, its centre line, and the 3-sigma limits for each month's own
+ * volume (drawn as steps). Months outside the limits are drawn as larger brick-red diamonds.
+ */
+export function PChart(props: {
+  points: PChartDatum[];
+  center: number;
+  formatLabel: (label: string) => string;
+  height?: number;
+}) {
+  const data = props.points.map((p) => ({ ...p, center: props.center }));
+  const top = Math.min(
+    1,
+    Math.max(props.center * 2, ...data.map((d) => Math.max(d.rate ?? 0, d.upper ?? 0))) * 1.08,
+  );
+  return (
+    <div style={{ height: props.height ?? 200 }}>
+      <ResponsiveContainer width="100%" height="100%">
+        <ComposedChart data={data} margin={{ top: 8, right: 12, bottom: 4, left: 0 }}>
+          <CartesianGrid stroke="#e9e0cd" strokeDasharray="3 3" vertical={false} />
+          <XAxis
+            dataKey="label"
+            tickFormatter={(l: string) => props.formatLabel(l).slice(0, 3)}
+            tick={{ fill: '#475569', fontSize: 11 }}
+            interval="preserveStartEnd"
+          />
+          <YAxis domain={[0, top]} tickFormatter={pct} tick={{ fill: '#475569', fontSize: 11 }} width={40} />
+          <Tooltip
+            formatter={(value: number, name: string) => [`${(Number(value) * 100).toFixed(1)}%`, name]}
+            labelFormatter={(l: string) => props.formatLabel(l)}
+          />
+          <Line dataKey="upper" name="Upper limit" type="step" stroke={P_CHART_COLOURS.limit} strokeWidth={1.25} strokeDasharray="4 3" dot={false} connectNulls={false} isAnimationActive={false} />
+          <Line dataKey="lower" name="Lower limit" type="step" stroke={P_CHART_COLOURS.limit} strokeWidth={1.25} strokeDasharray="4 3" dot={false} connectNulls={false} isAnimationActive={false} />
+          <Line dataKey="center" name="Centre line" stroke={P_CHART_COLOURS.centre} strokeWidth={1.5} dot={false} isAnimationActive={false} />
+          <Line
+            dataKey="rate"
+            name="Comeback rate"
+            stroke={P_CHART_COLOURS.rate}
+            strokeWidth={2}
+            connectNulls={false}
+            isAnimationActive={false}
+            dot={(p: { cx?: number; cy?: number; index?: number; payload?: PChartDatum }) => {
+              const key = `dot-${p.index}`;
+              if (p.cx == null || p.cy == null || p.payload?.rate == null) return <g key={key} />;
+              if (p.payload.signal) {
+                const { cx, cy } = p;
+                return <path key={key} d={`M${cx} ${cy - 6} L${cx + 6} ${cy} L${cx} ${cy + 6} L${cx - 6} ${cy} Z`} fill={P_CHART_COLOURS.signal} />;
+              }
+              return <circle key={key} cx={p.cx} cy={p.cy} r={3} fill={P_CHART_COLOURS.rate} />;
+            }}
+          />
+        </ComposedChart>
+      </ResponsiveContainer>
+    </div>
+  );
+}

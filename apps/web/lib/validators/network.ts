@@ -1,0 +1,61 @@
+import { z } from 'zod';
+import { idParam } from './common';
+
+/** Longest period the comparison accepts: five years of local dates. */
+export const MAX_PERIOD_DAYS = 1_830;
+
+const DAY = 86_400_000;
+
+/** Day number of a "YYYY-MM-DD" civil date, or null when it is not a real calendar date. */
+export function dayNumber(date: string): number | null {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(date);
+  if (!m) return null;
+  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
+  const ms = Date.UTC(y, mo - 1, d);
+  const check = new Date(ms);
+  if (check.getUTCFullYear() !== y || check.getUTCMonth() !== mo - 1 || check.getUTCDate() !== d)
+    return null;
+  return ms / DAY;
+}
+
+export const localDate = z
+  .string({ error: 'Give a date as YYYY-MM-DD' })
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date as YYYY-MM-DD')
+  .refine((s) => dayNumber(s) !== null, 'Not a calendar date');
+
+function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) {
+  const a = dayNumber(value.from);
+  const b = dayNumber(value.to);
+  if (a === null || b === null) return;
+  if (b < a) ctx.addIssue({ code: 'custom', path: ['to'], message: 'Must be on or after from' });
+  else if (b - a + 1 > MAX_PERIOD_DAYS)
+    ctx.addIssue({ code: 'custom', path: ['to'], message: 'A period can span at most five years' });
+}
+
+/** A period of local dates, both inclusive; each shop reads it in its own time zone. */
+export const periodQuery = z.object({ from: localDate, to: localDate }).superRefine(checkPeriod);
+export type PeriodQuery = z.infer<typeof periodQuery>;
+
+/** `GET /api/network/comparison` and `GET /api/network/trends` (with `metric`). */
+export const comparisonQuery = z
+  .object({ from: localDate, to: localDate, region: idParam.optional() })
+  .superRefine(checkPeriod);
+export type ComparisonQuery = z.infer<typeof comparisonQuery>;
+
+export const TREND_METRICS = ['comebacks', 'turnaround', 'revenue'] as const;
+export type TrendMetric = (typeof TREND_METRICS)[number];
+const metric = z.enum(TREND_METRICS, { error: 'Metric is comebacks, turnaround or revenue' });
+
+export const shopTrendsQuery = z
+  .object({ from: localDate, to: localDate, metric })
+  .superRefine(checkPeriod);
+export type ShopTrendsQuery = z.infer<typeof shopTrendsQuery>;
+
+export const networkTrendsQuery = z
+  .object({ from: localDate, to: localDate, region: idParam.optional(), metric })
+  .superRefine(checkPeriod);
+export type NetworkTrendsQuery = z.infer<typeof networkTrendsQuery>;
+
+/** How turnaround is shown: business hours, or business days of the shop's average open day. */
+export const TURNAROUND_UNITS = ['hours', 'days'] as const;
+export type TurnaroundUnit = (typeof TURNAROUND_UNITS)[number];

@@ -1,0 +1,425 @@
+import { asc, sql, type Db } from '@reelwright/db';
+import { regions as regionsTable } from '@reelwright/db/schema';
+import {
+  compareShops,
+  rateRealisation,
+  revenuePerBenchHour,
+  type ShopComparison,
+} from '@reelwright/metrics';
+import type { ComparisonQuery, PeriodQuery } from '~/lib/validators/network';
+import { notFound } from '../../errors';
+import type { Principal } from '../../principal';
+import {
+  loadSettings,
+  loadShops,
+  resolveContext,
+  toRef,
+  type NetworkSettingsUsed,
+  type NetworkShop,
+  type QueryContext,
+} from './context';
+import type {
+  NetworkComparisonResult,
+  NetworkTotals,
+  RateFigures,
+  ShopFigures,
+} from './types';
+
+/** One shop's counts for a period, straight from the aggregate. */
+export interface ShopCounts {
+  shopId: number;
+  jobsReady: number;
+  customerN: number;
+  customerTotal: number;
+  customerMedian: number | null;
+  customerP90: number | null;
+  benchN: number;
+  benchTotal: number;
+  benchMedian: number | null;
+  benchP90: number | null;
+  waitingMinutes: number;
+  promised: number;
+  onTime: number;
+  revenueCents: number;
+  labourCents: number;
+  benchMinutes: number;
+  collected: number;
+  trials: number;
+  events: number;
+  awaitingReview: number;
+  auditRounds: number;
+  auditScored: number;
+  auditFailures: number;
+  auditCritical: number;
+  actionsOpen: number;
+  actionsOverdue: number;
+}
+
+const pgArray = (values: readonly (string | number)[]) => `{${values.join(',')}}`;
+
+/**
+ * The one SQL aggregate behind the comparison: per shop, the jobs that became ready in the period
+ * (turnaround quantiles, on-time, money, bench time), the jobs collected in it with their
+ * comebacks (trials and events of the comeback rate), audit samples of rounds ending in it, and
+ * open corrective actions. The period is [from, to + 1 day) in each shop's own zone.
+ *
+ * percentile_cont is Hyndman & Fan type 7, the definition @reelwright/metrics uses. The warranty
+ * window is whole 24-hour days as in the metrics engine (an interval in days would follow the
+ * session zone's daylight-saving changes). Each part is a lateral subquery per shop so that it
+ * reads the (shop, instant) indexes whatever the planner's statistics say.
+ */
+export async function aggregateShops(
+  conn: Db,
+  shopIds: readonly number[],
+  period: PeriodQuery,
+  asOf: Date,
+  settings: NetworkSettingsUsed,
+): Promise<Map<number, ShopCounts>> {
+  if (shopIds.length === 0) return new Map();
+  const at = asOf.toISOString();
+  const hours = settings.warrantyDays * 24;
+  const counted = pgArray(settings.countedAttributions);
+  const { rows } = await conn.execute<Record<string, number | null>>(sql`
+    with s as (
+      select x.id,
+        (${period.from}::date::timestamp at time zone x.time_zone) as t0,
+        ((${period.to}::date + 1)::timestamp at time zone x.time_zone) as t1,
+        (${at}::timestamptz at time zone x.time_zone)::date as today
+      from shops x
+      where x.id = any(${pgArray(shopIds)}::int[])
+    )
+    select s.id as "shopId",
+      r.jobs_ready as "jobsReady",
+      r.customer_n as "customerN", r.customer_total as "customerTotal",
+      r.customer_median as "customerMedian", r.customer_p90 as "customerP90",
+      r.bench_n as "benchN", r.bench_total as "benchTotal",
+      r.bench_median as "benchMedian", r.bench_p90 as "benchP90",
+      r.waiting_minutes as "waitingMinutes", r.promised, r.on_time as "onTime",
+      r.revenue_cents as "revenueCents", r.labour_cents as "labourCents",
+      r.bench_minutes as "benchMinutes",
+      c.collected, c.trials, c.events, c.awaiting_review as "awaitingReview",
+      a.rounds as "auditRounds", a.scored as "auditScored", a.failures as "auditFailures",
+      a.critical as "auditCritical",
+      ca.open as "actionsOpen", ca.overdue as "actionsOverdue"
+    from s
+    cross join lateral (
+      select count(*)::int as jobs_ready,
+        count(j.customer_turnaround_minutes)::int as customer_n,
+        coalesce(sum(j.customer_turnaround_minutes), 0)::float8 as customer_total,
+        percentile_cont(0.5) within group (order by j.customer_turnaround_minutes) as customer_median,
+        percentile_cont(0.9) within group (order by j.customer_turnaround_minutes) as customer_p90,
+        count(j.bench_turnaround_minutes)::int as bench_n,
+        coalesce(sum(j.bench_turnaround_minutes), 0)::float8 as bench_total,
+        percentile_cont(0.5) within group (order by j.bench_turnaround_minutes) as bench_median,
+        percentile_cont(0.9) within group (order by j.bench_turnaround_minutes) as bench_p90,
+        coalesce(sum(j.waiting_parts_minutes), 0)::float8 as waiting_minutes,
+        count(j.promised_at)::int as promised,
+        (count(*) filter (where j.ready_at <= j.promised_at))::int as on_time,
+        coalesce(sum(j.labour_cents + j.parts_cents - j.discount_cents), 0)::float8 as revenue_cents,
+        coalesce(sum(j.labour_cents), 0)::float8 as labour_cents,
+        coalesce(sum(j.bench_minutes), 0)::float8 as bench_minutes
+      from jobs j
+      where j.shop_id = s.id and j.ready_at >= s.t0 and j.ready_at < s.t1
+    ) r
+    cross join lateral (
+      select count(*)::int as collected,
+        (count(*) filter (where k.came_back or k.window_end <= ${at}::timestamptz))::int as trials,
+        (count(*) filter (where k.counted))::int as events,
+        (count(*) filter (where k.pending and not k.came_back))::int as awaiting_review
+      from (
+        select j.collected_at + ${hours} * interval '1 hour' as window_end,
+          coalesce(b.came_back, false) as came_back,
+          coalesce(b.counted, false) as counted,
+          coalesce(b.pending, false) as pending
+        from jobs j
+        left join lateral (
+          select bool_or(cb.status = 'confirmed') as came_back,
+            bool_or(cb.status = 'confirmed'
+              and cb.attribution = any(${counted}::comeback_attribution[])) as counted,
+            bool_or(cb.status = 'open') as pending
+          from comebacks cb
+          where cb.original_job_id = j.id
+            and cb.detected_at >= j.collected_at
+            and cb.detected_at < j.collected_at + ${hours} * interval '1 hour'
+            and cb.detected_at <= ${at}::timestamptz
+        ) b on true
+        where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
+          and j.collected_at <= ${at}::timestamptz
+      ) k
+    ) c
+    cross join lateral (
+      select count(distinct ar.id)::int as rounds,
+        count(sm.verdict)::int as scored,
+        (count(*) filter (where sm.verdict in ('needs_work', 'critical_miss')))::int as failures,
+        (count(*) filter (where sm.verdict = 'critical_miss'))::int as critical
+      from audit_rounds ar
+      left join audit_samples sm on sm.round_id = ar.id
+      where ar.shop_id = s.id and ar.status <> 'cancelled'
+        and ar.period_end >= ${period.from}::date and ar.period_end <= ${period.to}::date
+    ) a
+    cross join lateral (
+      select (count(*) filter (where x.status in ('open', 'in_progress')))::int as open,
+        (count(*) filter (where x.status in ('open', 'in_progress') and x.due_on < s.today))::int
+          as overdue
+      from corrective_actions x
+      where x.shop_id = s.id
+    ) ca
+  `);
+  const out = new Map<number, ShopCounts>();
+  for (const row of rows) {
+    const n = (key: keyof ShopCounts) => Number(row[key] ?? 0);
+    const q = (key: keyof ShopCounts) => (row[key] == null ? null : Number(row[key]));
+    out.set(n('shopId'), {
+      shopId: n('shopId'),
+      jobsReady: n('jobsReady'),
+      customerN: n('customerN'),
+      customerTotal: n('customerTotal'),
+      customerMedian: q('customerMedian'),
+      customerP90: q('customerP90'),
+      benchN: n('benchN'),
+      benchTotal: n('benchTotal'),
+      benchMedian: q('benchMedian'),
+      benchP90: q('benchP90'),
+      waitingMinutes: n('waitingMinutes'),
+      promised: n('promised'),
+      onTime: n('onTime'),
+      revenueCents: n('revenueCents'),
+      labourCents: n('labourCents'),
+      benchMinutes: n('benchMinutes'),
+      collected: n('collected'),
+      trials: n('trials'),
+      events: n('events'),
+      awaitingReview: n('awaitingReview'),
+      auditRounds: n('auditRounds'),
+      auditScored: n('auditScored'),
+      auditFailures: n('auditFailures'),
+      auditCritical: n('auditCritical'),
+      actionsOpen: n('actionsOpen'),
+      actionsOverdue: n('actionsOverdue'),
+    });
+  }
+  return out;
+}
+
+const EMPTY: Omit<ShopCounts, 'shopId'> = {
+  jobsReady: 0,
+  customerN: 0,
+  customerTotal: 0,
+  customerMedian: null,
+  customerP90: null,
+  benchN: 0,
+  benchTotal: 0,
+  benchMedian: null,
+  benchP90: null,
+  waitingMinutes: 0,
+  promised: 0,
+  onTime: 0,
+  revenueCents: 0,
+  labourCents: 0,
+  benchMinutes: 0,
+  collected: 0,
+  trials: 0,
+  events: 0,
+  awaitingReview: 0,
+  auditRounds: 0,
+  auditScored: 0,
+  auditFailures: 0,
+  auditCritical: 0,
+  actionsOpen: 0,
+  actionsOverdue: 0,
+};
+
+function rateFigures(c: ShopComparison, networkRate: number | null): RateFigures {
+  const side =
+    c.rate === null || networkRate === null
+      ? null
+      : c.rate > networkRate
+        ? 'above'
+        : c.rate < networkRate
+          ? 'below'
+          : 'equal';
+  return {
+    events: c.events,
+    trials: c.trials,
+    rate: c.rate,
+    interval: c.interval,
+    funnel95: c.funnel95,
+    funnel998: c.funnel998,
+    band: c.trials === 0 ? null : c.band,
+    side,
+  };
+}
+
+function totals(figures: readonly ShopFigures[]): NetworkTotals {
+  const sum = (pick: (f: ShopFigures) => number) => figures.reduce((t, f) => t + pick(f), 0);
+  const events = sum((f) => f.comebacks.events);
+  const trials = sum((f) => f.comebacks.trials);
+  const auditEvents = sum((f) => f.audits.events);
+  const auditTrials = sum((f) => f.audits.trials);
+  const revenueCents = sum((f) => f.revenue.revenueCents);
+  const benchMinutes = sum((f) => f.revenue.benchMinutes);
+  return {
+    shops: figures.length,
+    jobsReady: sum((f) => f.jobsReady),
+    comebacks: {
+      events,
+      trials,
+      collected: sum((f) => f.comebacks.collected),
+      censored: sum((f) => f.comebacks.censored),
+      rate: trials === 0 ? null : events / trials,
+    },
+    audits: {
+      events: auditEvents,
+      trials: auditTrials,
+      rounds: sum((f) => f.audits.rounds),
+      rate: auditTrials === 0 ? null : auditEvents / auditTrials,
+    },
+    revenue: {
+      revenueCents,
+      labourCents: sum((f) => f.revenue.labourCents),
+      benchMinutes,
+      perBenchHourCents: revenuePerBenchHour([{ revenueCents, benchMinutes }]),
+    },
+    correctiveActions: {
+      open: sum((f) => f.correctiveActions.open),
+      overdue: sum((f) => f.correctiveActions.overdue),
+    },
+  };
+}
+
+/**
+ * Figures for every shop of the network from the aggregate, through @reelwright/metrics: fair
+ * comparison of comeback and audit failure rates against the whole network's pooled rate, Wilson
+ * intervals, funnel limits and bands, revenue per bench hour and rate realisation.
+ */
+export function assembleFigures(
+  shops: readonly NetworkShop[],
+  counts: ReadonlyMap<number, ShopCounts>,
+) {
+  const all = shops.map((shop) => ({ shop, c: { ...EMPTY, ...counts.get(shop.id) } }));
+  const comebacks = compareShops(
+    all.map(({ shop, c }) => ({ shopId: String(shop.id), events: c.events, trials: c.trials })),
+  );
+  const audits = compareShops(
+    all.map(({ shop, c }) => ({
+      shopId: String(shop.id),
+      events: c.auditFailures,
+      trials: c.auditScored,
+    })),
+  );
+  const figures = all.map(({ shop, c }, i): ShopFigures => {
+    const realisation = rateRealisation(
+      [{ labourCents: c.labourCents, benchMinutes: c.benchMinutes }],
+      shop.labourRateCents,
+    );
+    return {
+      shop: toRef(shop),
+      jobsReady: c.jobsReady,
+      customerTurnaround: {
+        count: c.customerN,
+        totalMinutes: c.customerTotal,
+        median: c.customerMedian,
+        p90: c.customerP90,
+      },
+      benchTurnaround: {
+        count: c.benchN,
+        totalMinutes: c.benchTotal,
+        median: c.benchMedian,
+        p90: c.benchP90,
+      },
+      waitingPartsMinutes: c.waitingMinutes,
+      onTime: {
+        onTime: c.onTime,
+        total: c.promised,
+        share: c.promised === 0 ? null : c.onTime / c.promised,
+      },
+      comebacks: {
+        ...rateFigures(comebacks.shops[i]!, comebacks.networkRate),
+        collected: c.collected,
+        censored: c.collected - c.trials,
+        awaitingReview: c.awaitingReview,
+      },
+      revenue: {
+        revenueCents: c.revenueCents,
+        labourCents: c.labourCents,
+        benchMinutes: c.benchMinutes,
+        perBenchHourCents: revenuePerBenchHour([
+          { revenueCents: c.revenueCents, benchMinutes: c.benchMinutes },
+        ]),
+        labourPerBenchHourCents: realisation.labourPerBenchHour,
+        realisation: realisation.realisation,
+      },
+      audits: {
+        ...rateFigures(audits.shops[i]!, audits.networkRate),
+        rounds: c.auditRounds,
+        criticalMisses: c.auditCritical,
+      },
+      correctiveActions: { open: c.actionsOpen, overdue: c.actionsOverdue },
+    };
+  });
+  return { figures, network: totals(figures) };
+}
+
+/** The regions the caller may filter by: all for the network, their own for a region or shop. */
+async function regionsFor(conn: Db, principal: Principal, shops: readonly NetworkShop[]) {
+  const all = await conn
+    .select({ id: regionsTable.id, name: regionsTable.name })
+    .from(regionsTable)
+    .orderBy(asc(regionsTable.name));
+  if (principal.scope.kind === 'network') return all;
+  const mine = new Set(shops.filter((s) => s.visible).map((s) => s.region.id));
+  if (principal.scope.kind === 'region') mine.add(principal.scope.regionId);
+  return all.filter((r) => mine.has(r.id));
+}
+
+/** Loads and computes every shop's figures; shared by the network view and the shop page. */
+export async function computeNetwork(
+  conn: Db,
+  principal: Principal,
+  period: PeriodQuery,
+  asOf: Date,
+) {
+  const [settings, shops] = await Promise.all([loadSettings(conn), loadShops(conn, principal)]);
+  const counts = await aggregateShops(
+    conn,
+    shops.map((s) => s.id),
+    period,
+    asOf,
+    settings,
+  );
+  return { settings, shops, ...assembleFigures(shops, counts) };
+}
+
+/**
+ * `GET /api/network/comparison`: per shop in the caller's scope (narrowed to a region if asked),
+ * the counts behind every figure, the figures, intervals and bands, with totals for the shops
+ * shown and for the whole network whose rate they are judged against. A region outside the
+ * caller's scope is not found.
+ */
+export async function networkComparison(
+  principal: Principal,
+  query: ComparisonQuery,
+  ctx: QueryContext = {},
+): Promise<NetworkComparisonResult> {
+  const { conn, asOf } = await resolveContext(ctx);
+  const period = { from: query.from, to: query.to };
+  const net = await computeNetwork(conn, principal, period, asOf);
+  const regions = await regionsFor(conn, principal, net.shops);
+  let region: { id: number; name: string } | null = null;
+  if (query.region !== undefined) {
+    region = regions.find((r) => r.id === query.region) ?? null;
+    if (!region) throw notFound('region');
+  }
+  const shown = net.figures.filter(
+    (_, i) => net.shops[i]!.visible && (region === null || net.shops[i]!.region.id === region.id),
+  );
+  return {
+    period: { ...period, asOf: asOf.toISOString() },
+    settings: net.settings,
+    region,
+    regions,
+    network: net.network,
+    view: totals(shown),
+    shops: shown,
+  };
+}

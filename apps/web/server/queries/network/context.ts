@@ -1,0 +1,108 @@
+import { TZDate } from '@date-fns/tz';
+import { asc, eq, sql, type Db } from '@reelwright/db';
+import { networkSettings, regions, shops } from '@reelwright/db/schema';
+import {
+  businessDays,
+  businessMinutes,
+  DEFAULT_COUNTED_ATTRIBUTIONS,
+  type ComebackAttribution,
+} from '@reelwright/metrics';
+import { db } from '../../db';
+import type { Principal } from '../../principal';
+import { shopScope } from '../scope';
+import type { ShopRef } from './types';
+
+/** What a network query runs against: a database (default: the app's) and the as-of instant. */
+export interface QueryContext {
+  db?: Db;
+  asOf?: Date;
+}
+
+export async function resolveContext(ctx: QueryContext = {}) {
+  return { conn: ctx.db ?? (await db()), asOf: ctx.asOf ?? new Date() };
+}
+
+export interface NetworkSettingsUsed {
+  warrantyDays: number;
+  countedAttributions: ComebackAttribution[];
+}
+
+/** The owner's warranty window and counted attributions; the schema defaults when unset. */
+export async function loadSettings(conn: Db): Promise<NetworkSettingsUsed> {
+  const [row] = await conn
+    .select({
+      warrantyDays: networkSettings.warrantyDays,
+      countedAttributions: networkSettings.countedAttributions,
+    })
+    .from(networkSettings)
+    .where(eq(networkSettings.id, 1))
+    .limit(1);
+  return {
+    warrantyDays: row?.warrantyDays ?? 90,
+    countedAttributions: row?.countedAttributions ?? [...DEFAULT_COUNTED_ATTRIBUTIONS],
+  };
+}
+
+export interface NetworkShop extends ShopRef {
+  /** Inside the caller's scope. */
+  visible: boolean;
+}
+
+/**
+ * Every shop of the network, each marked visible or not for the caller. All of them are needed
+ * because each shop is judged against the whole network's rate; only visible ones leave the server.
+ */
+export async function loadShops(conn: Db, principal: Principal): Promise<NetworkShop[]> {
+  const scope = shopScope(principal);
+  const rows = await conn
+    .select({
+      id: shops.id,
+      name: shops.name,
+      slug: shops.slug,
+      regionId: regions.id,
+      regionName: regions.name,
+      timeZone: shops.timeZone,
+      openingHours: shops.openingHours,
+      labourRateCents: shops.labourRateCents,
+      seasonStart: shops.seasonStart,
+      seasonEnd: shops.seasonEnd,
+      visible: scope ? sql<boolean>`coalesce(${scope}, false)` : sql<boolean>`true`,
+    })
+    .from(shops)
+    .innerJoin(regions, eq(regions.id, shops.regionId))
+    .orderBy(asc(regions.name), asc(shops.name));
+  return rows.map((r) => ({
+    id: r.id,
+    name: r.name,
+    slug: r.slug,
+    region: { id: r.regionId, name: r.regionName },
+    timeZone: r.timeZone,
+    labourRateCents: r.labourRateCents,
+    openMinutesPerDay: openMinutesPerDay(r.timeZone, r.openingHours),
+    seasonStart: r.seasonStart,
+    seasonEnd: r.seasonEnd,
+    visible: r.visible === true,
+  }));
+}
+
+/**
+ * Average open minutes per open day of the shop's weekly hours, measured by the metrics engine
+ * over one ordinary week (no closed dates): the divisor that turns business minutes into
+ * business days. Null for a shop with no opening hours.
+ */
+export function openMinutesPerDay(
+  timeZone: string,
+  weekly: Parameters<typeof businessMinutes>[2]['weekly'],
+): number | null {
+  const calendar = { timeZone, weekly, closedDates: [] };
+  // Monday 2026-01-05 to the next Monday, local midnight to local midnight.
+  const from = new Date(new TZDate(2026, 0, 5, timeZone).getTime());
+  const to = new Date(new TZDate(2026, 0, 12, timeZone).getTime());
+  const days = businessDays(from, to, calendar);
+  return days > 0 ? businessMinutes(from, to, calendar) / days : null;
+}
+
+export function toRef(shop: NetworkShop): ShopRef {
+  const { visible: _visible, ...ref } = shop;
+  return ref;
+}

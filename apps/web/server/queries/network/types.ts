@@ -1,0 +1,211 @@
+import type { ComebackAttribution, FairnessBand, Interval, PChartRow } from '@reelwright/metrics';
+
+// Plain JSON shapes: the API returns them and the server pages hand them to client components.
+
+export interface PeriodInfo {
+  /** Local dates, inclusive, read in each shop's own time zone. */
+  from: string;
+  to: string;
+  /** The instant the figures were computed at (ISO); warranty windows close relative to it. */
+  asOf: string;
+}
+
+export interface ShopRef {
+  id: number;
+  name: string;
+  slug: string;
+  region: { id: number; name: string };
+  timeZone: string;
+  /** Posted labour rate, cents per hour. */
+  labourRateCents: number;
+  /** Average open minutes of an open day (business days = business minutes ÷ this). */
+  openMinutesPerDay: number | null;
+  /** The local fishing season, "MM-DD". */
+  seasonStart: string;
+  seasonEnd: string;
+}
+
+export interface TurnaroundFigures {
+  /** Jobs with a stored turnaround (the quantiles are over these). */
+  count: number;
+  /** Sum of the stored minutes, so a mean can be recomputed. */
+  totalMinutes: number;
+  /** Hyndman & Fan type 7 quantiles of business minutes; null with no jobs. */
+  median: number | null;
+  p90: number | null;
+}
+
+export interface RateFigures {
+  events: number;
+  trials: number;
+  rate: number | null;
+  /** Wilson 95% score interval; null with no trials. */
+  interval: Interval | null;
+  /** Funnel limits for this volume around the network rate. */
+  funnel95: Interval;
+  funnel998: Interval;
+  /** Null with no trials (nothing to judge). */
+  band: FairnessBand | null;
+  /** Which side of the network rate the shop's rate falls; null with no trials or no network rate. */
+  side: 'above' | 'below' | 'equal' | null;
+}
+
+export interface ComebackFigures extends RateFigures {
+  /** Jobs collected in the period. */
+  collected: number;
+  /** Collected jobs still inside their warranty window that have not come back (left out). */
+  censored: number;
+  /** Comebacks against jobs of the period still awaiting review (not counted yet). */
+  awaitingReview: number;
+}
+
+export interface AuditFigures extends RateFigures {
+  /** Audit rounds whose period ends inside the period (cancelled rounds left out). */
+  rounds: number;
+  criticalMisses: number;
+}
+
+export interface RevenueFigures {
+  /** Jobs that became ready in the period: labour + parts − discount. */
+  revenueCents: number;
+  labourCents: number;
+  benchMinutes: number;
+  /** Billed revenue per logged bench hour, cents; null with no bench time. */
+  perBenchHourCents: number | null;
+  labourPerBenchHourCents: number | null;
+  /** Labour per bench hour ÷ posted rate; null without bench time or a posted rate. */
+  realisation: number | null;
+}
+
+export interface ShopFigures {
+  shop: ShopRef;
+  /** Jobs that became ready in the period. */
+  jobsReady: number;
+  customerTurnaround: TurnaroundFigures;
+  benchTurnaround: TurnaroundFigures;
+  waitingPartsMinutes: number;
+  onTime: { onTime: number; total: number; share: number | null };
+  comebacks: ComebackFigures;
+  revenue: RevenueFigures;
+  audits: AuditFigures;
+  correctiveActions: { open: number; overdue: number };
+}
+
+export interface NetworkTotals {
+  shops: number;
+  jobsReady: number;
+  comebacks: { events: number; trials: number; collected: number; censored: number; rate: number | null };
+  audits: { events: number; trials: number; rounds: number; rate: number | null };
+  revenue: { revenueCents: number; labourCents: number; benchMinutes: number; perBenchHourCents: number | null };
+  correctiveActions: { open: number; overdue: number };
+}
+
+export interface NetworkComparisonResult {
+  period: PeriodInfo;
+  settings: { warrantyDays: number; countedAttributions: ComebackAttribution[] };
+  /** The region filter applied, if any. */
+  region: { id: number; name: string } | null;
+  /** Regions the caller may filter by. */
+  regions: { id: number; name: string }[];
+  /** Every shop of the network: the rate each shop is compared with. */
+  network: NetworkTotals;
+  /** The shops in the response (the caller's scope, narrowed by the region filter). */
+  view: NetworkTotals;
+  shops: ShopFigures[];
+}
+
+export interface MonthlyComebacks {
+  shop: ShopRef;
+  /** p-chart around the shop's own rate over the months shown. */
+  center: number | null;
+  points: PChartRow[];
+}
+
+export interface MonthlyTurnaround {
+  shop: ShopRef;
+  points: {
+    label: string;
+    count: number;
+    customerMedian: number | null;
+    customerP90: number | null;
+    benchMedian: number | null;
+    benchP90: number | null;
+  }[];
+}
+
+export interface MonthlyRevenue {
+  shop: ShopRef;
+  points: {
+    label: string;
+    revenueCents: number;
+    labourCents: number;
+    benchMinutes: number;
+    perBenchHourCents: number | null;
+    realisation: number | null;
+  }[];
+}
+
+export type TrendsResult =
+  | { metric: 'comebacks'; period: PeriodInfo; months: string[]; shops: MonthlyComebacks[] }
+  | { metric: 'turnaround'; period: PeriodInfo; months: string[]; shops: MonthlyTurnaround[] }
+  | { metric: 'revenue'; period: PeriodInfo; months: string[]; shops: MonthlyRevenue[] };
+
+export interface HistogramBin {
+  /** Business minutes, [from, to); the last bin is open-ended when `to` is null. */
+  from: number;
+  to: number | null;
+  customer: number;
+  bench: number;
+}
+
+export interface ShopComeback {
+  id: number;
+  jobId: number;
+  originalJobId: number;
+  collectedAt: string;
+  detectedAt: string;
+  daysSinceCollection: number;
+  symptom: string | null;
+  status: 'open' | 'confirmed' | 'dismissed';
+  attribution: ComebackAttribution | null;
+  rootCause: string | null;
+  disposition: string | null;
+  /** Whether it is an event of the period's comeback rate. */
+  counted: boolean;
+}
+
+export interface RevenueGroup {
+  key: string;
+  label: string;
+  jobs: number;
+  revenueCents: number;
+  labourCents: number;
+  benchMinutes: number;
+  perBenchHourCents: number | null;
+  realisation: number | null;
+}
+
+export interface OpenJob {
+  id: number;
+  state: 'checked_in' | 'on_bench' | 'waiting_parts' | 'ready';
+  serviceType: string;
+  checkedInAt: string;
+  promisedAt: string | null;
+  customerName: string;
+  reel: string;
+  technicianName: string | null;
+  daysOpen: number;
+}
+
+export interface ShopMetricsResult {
+  period: PeriodInfo;
+  settings: NetworkComparisonResult['settings'];
+  network: NetworkTotals;
+  figures: ShopFigures;
+  histogram: { binMinutes: number; bins: HistogramBin[] };
+  comebacks: ShopComeback[];
+  byTechnician: RevenueGroup[];
+  byServiceType: RevenueGroup[];
+  openCounts: Record<OpenJob['state'], number>;
+  openLongest: OpenJob[];
+}
