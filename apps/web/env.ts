@@ -25,6 +25,13 @@ const schema = z.object({
   MAIL_FROM: z.string().min(3).default('Reelwright <no-reply@reelwright.test>'),
   // The local SMTP catcher's HTTP side (scripts/fakes.ts); /dev/mail shows what it caught.
   MAIL_CATCHER_URL: z.url().optional(),
+  // Royalty invoices. With STRIPE_API_BASE set (the local fake, scripts/fake-stripe.mjs) the SDK
+  // talks to that server over plain HTTP; otherwise a real STRIPE_SECRET_KEY talks to Stripe.
+  STRIPE_SECRET_KEY: z.string().min(8).optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().min(8).optional(),
+  STRIPE_API_BASE: z.url().optional(),
+  // Public address of the app for links in e-mail (unsubscribe); default NEXTAUTH_URL.
+  APP_BASE_URL: z.url().optional(),
 });
 
 const isBuild = process.env.NEXT_PHASE === 'phase-production-build';
@@ -44,6 +51,10 @@ function load() {
     SMTP_URL: process.env.SMTP_URL || undefined,
     MAIL_FROM: process.env.MAIL_FROM || undefined,
     MAIL_CATCHER_URL: process.env.MAIL_CATCHER_URL || undefined,
+    STRIPE_SECRET_KEY: process.env.STRIPE_SECRET_KEY || undefined,
+    STRIPE_WEBHOOK_SECRET: process.env.STRIPE_WEBHOOK_SECRET || undefined,
+    STRIPE_API_BASE: process.env.STRIPE_API_BASE || undefined,
+    APP_BASE_URL: process.env.APP_BASE_URL || undefined,
   });
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);

@@ -1,0 +1,9 @@
+// GET /api/reminders/batches/{id} – one reminder batch with its progress (sent, skipped, failed of total)
+import { idParams } from '~/lib/validators/common';
+import { route } from '~/server/api';
+import { getBatch } from '~/server/reminders/send';
+
+export const GET = route(
+  { permission: 'reminders:send', params: idParams },
+  async ({ principal, params }) => getBatch(principal, params.id),
+);

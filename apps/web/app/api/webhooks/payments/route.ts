@@ -1,0 +1,22 @@
+// POST /api/webhooks/payments – payment-provider webhook: verifies the signature, records paid and failed royalty invoices
+import type { NextRequest } from 'next/server';
+import { env } from '~/env';
+import { db } from '~/server/db';
+import { problemResponse } from '~/server/errors';
+import { handlePaymentWebhook } from '~/server/payments/webhook';
+
+// No session here: the Stripe-Signature over the raw body is the caller's proof.
+export async function POST(request: NextRequest) {
+  try {
+    const payload = await request.text();
+    const outcome = await handlePaymentWebhook(
+      await db(),
+      payload,
+      request.headers.get('stripe-signature'),
+      env.STRIPE_WEBHOOK_SECRET,
+    );
+    return Response.json(outcome);
+  } catch (error) {
+    return problemResponse(error, request.nextUrl.pathname);
+  }
+}

@@ -1,0 +1,24 @@
+import { z } from 'zod';
+import { idParam } from './common';
+
+export const REMINDER_WEEKS = [2, 4, 6, 8, 12, 26] as const;
+
+const weeks = z.coerce
+  .number({ error: 'Must be a number of weeks' })
+  .int('Use whole weeks')
+  .min(1, 'At least one week')
+  .max(26, 'At most 26 weeks');
+
+/** GET /api/reminders/due?shop=&weeks= — the shop defaults to the caller's own. */
+export const dueQuery = z.object({
+  shop: idParam.optional(),
+  weeks: weeks.default(4),
+});
+
+export const sendInput = z.object({
+  shopId: idParam.optional(),
+  weeks: weeks.default(4),
+});
+export type SendInput = z.infer<typeof sendInput>;
+
+export const batchesQuery = z.object({ shop: idParam.optional() });
