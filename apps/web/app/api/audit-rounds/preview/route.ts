@@ -1,0 +1,9 @@
+// GET /api/audit-rounds/preview – the lot, severity and sampling plan a round would get; draws nothing
+import { planPreviewQuery } from '~/lib/validators/audits';
+import { route } from '~/server/api';
+import { previewRound } from '~/server/audits/plan';
+
+export const GET = route(
+  { permission: 'audits:plan', query: planPreviewQuery },
+  async ({ principal, query }) => previewRound(principal, query),
+);

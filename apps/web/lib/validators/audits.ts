@@ -1,0 +1,219 @@
+import { AQLS } from '@reelwright/metrics';
+import { z } from 'zod';
+import { idParam } from './common';
+
+// Zod schemas shared by the audit screens and the audit and corrective-action route handlers.
+
+export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S1', 'S2', 'S3', 'S4'] as const;
+export type InspectionLevelValue = (typeof INSPECTION_LEVELS)[number];
+export const SEVERITIES = ['normal', 'tightened', 'reduced', 'discontinued'] as const;
+export type SeverityValue = (typeof SEVERITIES)[number];
+export const ROUND_STATUSES = ['planned', 'in_progress', 'decided', 'cancelled'] as const;
+export type RoundStatusValue = (typeof ROUND_STATUSES)[number];
+export const ANSWER_RESULTS = ['pass', 'fail', 'not_applicable'] as const;
+export type AnswerResultValue = (typeof ANSWER_RESULTS)[number];
+export const VERDICTS = ['meets_standard', 'needs_work', 'critical_miss'] as const;
+export type VerdictValue = (typeof VERDICTS)[number];
+export const CORRECTIVE_ACTION_STATUSES = ['open', 'in_progress', 'done', 'verified'] as const;
+export type CorrectiveActionStatusValue = (typeof CORRECTIVE_ACTION_STATUSES)[number];
+
+/** The AQL columns of the standard's tables, as the planning form offers them. */
+export const AQL_CHOICES = AQLS;
+
+/** A local calendar date, "YYYY-MM-DD", that exists. */
+export const localDate = z
+  .string({ error: 'Enter a date' })
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use the form YYYY-MM-DD')
+  .refine((value) => {
+    const [y, m, d] = value.split('-').map(Number) as [number, number, number];
+    const date = new Date(Date.UTC(y, m - 1, d));
+    return (
+      y >= 2000 &&
+      y <= 2100 &&
+      date.getUTCFullYear() === y &&
+      date.getUTCMonth() === m - 1 &&
+      date.getUTCDate() === d
+    );
+  }, 'Not a calendar date');
+
+/** Longest period a round may cover: a lot is a batch of work, not a shop's whole history. */
+export const MAX_PERIOD_DAYS = 366;
+
+const dayNumber = (value: string) => Date.parse(`${value}T00:00:00Z`) / 86_400_000;
+
+const aql = z.coerce
+  .number({ error: 'Choose an AQL' })
+  .refine(
+    (v) => AQLS.some((a) => Math.abs(a - v) <= a * 1e-9),
+    `Choose one of the standard's AQLs: ${AQLS.join(', ')}`,
+  );
+
+const periodFields = {
+  shopId: idParam,
+  from: localDate,
+  to: localDate,
+  aql: aql.optional(),
+  level: z.enum(INSPECTION_LEVELS, { error: 'Choose an inspection level' }).optional(),
+};
+
+function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) {
+  const from = dayNumber(value.from);
+  const to = dayNumber(value.to);
+  if (Number.isNaN(from) || Number.isNaN(to)) return;
+  if (to < from) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['to'],
+      message: 'The period must end on or after its start',
+    });
+  } else if (to - from + 1 > MAX_PERIOD_DAYS) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['to'],
+      message: `A round covers at most ${MAX_PERIOD_DAYS} days`,
+    });
+  }
+}
+
+/** Query of GET /api/audit-rounds/preview: what a round for this shop and period would be. */
+export const planPreviewQuery = z.object(periodFields).superRefine(checkPeriod);
+export type PlanPreviewQuery = z.infer<typeof planPreviewQuery>;
+
+/** Body of POST /api/audit-rounds. */
+export const planRoundInput = z
+  .object({ ...periodFields, auditorId: idParam })
+  .strict()
+  .superRefine(checkPeriod);
+export type PlanRoundInput = z.infer<typeof planRoundInput>;
+
+export const roundListQuery = z.object({
+  shopId: idParam.optional(),
+  status: z.enum(ROUND_STATUSES).optional(),
+});
+export type RoundListQuery = z.infer<typeof roundListQuery>;
+
+export const roundSampleParams = z.object({ id: idParam, jobId: idParam });
+
+const NOTE_MAX = 2000;
+
+export const sampleAnswer = z.object({
+  itemId: idParam,
+  result: z.enum(ANSWER_RESULTS, { error: 'Choose pass, fail or not applicable' }),
+  note: z.string().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
+});
+
+/**
+ * Body of PUT /api/audit-rounds/{id}/samples/{jobId}: the auditor's answers so far. `final`
+ * finishes the sample: every item answered, and every failed item says what was wrong.
+ */
+export const sampleAnswersInput = z
+  .object({
+    answers: z.array(sampleAnswer).max(200),
+    note: z.string().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
+    final: z.boolean().optional(),
+  })
+  .strict()
+  .superRefine((value, ctx) => {
+    const seen = new Set<number>();
+    value.answers.forEach((answer, i) => {
+      if (seen.has(answer.itemId))
+        ctx.addIssue({ code: 'custom', path: ['answers', i, 'itemId'], message: 'Answered twice' });
+      seen.add(answer.itemId);
+      if (value.final && answer.result === 'fail' && !answer.note)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['answers', i, 'note'],
+          message: 'Say what was wrong with a failed item',
+        });
+    });
+  });
+export type SampleAnswersInput = z.infer<typeof sampleAnswersInput>;
+
+export const correctiveActionListQuery = z.object({
+  shopId: idParam.optional(),
+  status: z.enum(CORRECTIVE_ACTION_STATUSES).optional(),
+});
+export type CorrectiveActionListQuery = z.infer<typeof correctiveActionListQuery>;
+
+const correctiveActionFields = {
+  status: z.enum(CORRECTIVE_ACTION_STATUSES, { error: 'Not a status' }).optional(),
+  resolutionNote: z.string().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
+  description: z
+    .string()
+    .trim()
+    .min(1, 'Describe the action')
+    .max(NOTE_MAX, `At most ${NOTE_MAX} characters`)
+    .optional(),
+  dueOn: localDate.optional(),
+  ownerId: idParam.nullable().optional(),
+};
+
+const somethingToChange = (v: Record<string, unknown>) =>
+  Object.entries(v).some(([k, x]) => k !== 'id' && x !== undefined);
+
+/** Body of PATCH /api/corrective-actions/{id}. */
+export const correctiveActionPatch = z
+  .object(correctiveActionFields)
+  .strict()
+  .refine(somethingToChange, 'Nothing to change');
+export type CorrectiveActionPatch = z.infer<typeof correctiveActionPatch>;
+
+/** Body of PATCH /api/corrective-actions: the same, with the id in the body. */
+export const correctiveActionPatchWithId = z
+  .object({ id: idParam, ...correctiveActionFields })
+  .strict()
+  .refine(somethingToChange, 'Nothing to change');
+
+export const auditFormItemInput = z.object({
+  code: z
+    .string()
+    .trim()
+    .regex(
+      /^[a-z][a-z0-9_]*(\.[a-z0-9_]+)*$/,
+      'Lower-case words joined by dots, e.g. drag.serviced',
+    )
+    .max(60),
+  title: z.string().trim().min(3, 'Give the item a title').max(200),
+  guidance: z.string().trim().max(500).optional(),
+  weight: z.coerce
+    .number({ error: 'Enter a weight' })
+    .int('A whole number')
+    .min(1, 'At least 1')
+    .max(100, 'At most 100'),
+  critical: z.boolean(),
+});
+
+/** Body of POST /api/audit-forms: the next version of the audit form. */
+export const auditFormInput = z
+  .object({
+    title: z.string().trim().min(3, 'Give the form a title').max(200),
+    items: z.array(auditFormItemInput).min(1, 'The form needs at least one item').max(60),
+  })
+  .strict()
+  .superRefine((value, ctx) => {
+    const seen = new Set<string>();
+    value.items.forEach((item, i) => {
+      if (seen.has(item.code))
+        ctx.addIssue({ code: 'custom', path: ['items', i, 'code'], message: 'Codes must differ' });
+      seen.add(item.code);
+    });
+  });
+export type AuditFormInput = z.infer<typeof auditFormInput>;
+
+export type CorrectiveActionMover = 'shop_lead' | 'verifier';
+
+/**
+ * The status changes a role may make: the shop lead moves an action along (open → in progress →
+ * done); a regional manager or the owner verifies a done action, or sends it back to in progress.
+ */
+export function correctiveActionMoves(
+  mover: CorrectiveActionMover | null,
+  status: CorrectiveActionStatusValue,
+): CorrectiveActionStatusValue[] {
+  if (mover === 'shop_lead') {
+    if (status === 'open') return ['in_progress', 'done'];
+    if (status === 'in_progress') return ['done'];
+  }
+  if (mover === 'verifier' && status === 'done') return ['verified', 'in_progress'];
+  return [];
+}
