@@ -4,7 +4,7 @@
 // same key and parameters replay the first answer, the same key with other parameters is a 400.
 // State lives in memory; it sends no webhooks (tests sign and post those themselves).
 //
-//   node apps/web/scripts/fake-stripe.mjs        # FAKE_STRIPE_PORT (12111; 0 = any), FAKES_HOST
+//   node apps/web/scripts/fake-stripe.mjs [--port=N]   # or FAKE_STRIPE_PORT (12111; 0 = any); FAKES_HOST
 //
 // GET /_fake/state lists what was created. FAKE_STRIPE_ENV_FILE: once listening, STRIPE_API_BASE
 // and a placeholder STRIPE_SECRET_KEY are written there as KEY=value lines.
@@ -12,7 +12,8 @@ import { renameSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 
 const host = process.env.FAKES_HOST || '127.0.0.1';
-const port = Number(process.env.FAKE_STRIPE_PORT ?? 12111);
+const portArg = process.argv.find((a) => a.startsWith('--port='))?.slice('--port='.length);
+const port = Number(portArg ?? process.env.FAKE_STRIPE_PORT ?? 12111);
 const store = { customers: new Map(), invoiceitems: new Map(), invoices: new Map() };
 const replays = new Map();
 let counter = 0;
