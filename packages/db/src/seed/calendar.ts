@@ -1,4 +1,4 @@
-import { TZDate } from '@date-fns/tz';
+import { tzOffset } from '@date-fns/tz';
 import type { OpeningHours, Weekday } from '../schema/shops';
 
 const MINUTE = 60_000;
@@ -20,6 +20,8 @@ export interface OpenTimeline {
   readonly timeZone: string;
   readonly starts: number[];
   readonly ends: number[];
+  /** Local month (1–12) of each interval. */
+  readonly months: number[];
   /** Open minutes on an ordinary full week, for scaling "business days". */
   readonly minutesPerOpenDay: number;
 }
@@ -35,22 +37,19 @@ export function isoDate(y: number, m: number, d: number): string {
 
 /** Local calendar date of an instant in a zone, "YYYY-MM-DD". */
 export function localDate(ms: number, timeZone: string): string {
-  const t = new TZDate(ms, timeZone);
-  return isoDate(t.getFullYear(), t.getMonth() + 1, t.getDate());
-}
-
-/** Local month (1–12) of an instant in a zone. */
-export function localMonth(ms: number, timeZone: string): number {
-  return new TZDate(ms, timeZone).getMonth() + 1;
+  const local = new Date(ms + tzOffset(timeZone, new Date(ms)) * MINUTE);
+  return isoDate(local.getUTCFullYear(), local.getUTCMonth() + 1, local.getUTCDate());
 }
 
 export function buildTimeline(cal: CalendarInput, fromMs: number, toMs: number): OpenTimeline {
   const closed = new Set(cal.closedDates);
   const starts: number[] = [];
   const ends: number[] = [];
+  const months: number[] = [];
   let openDays = 0;
   let openMinutes = 0;
-  // Walk civil dates in UTC so DST never skips or repeats a day; TZDate places the spans.
+  // Walk civil dates in UTC so DST never skips or repeats a day. One offset per day, taken at
+  // midday: zone changes happen at night, outside every shop's hours.
   for (let day = Math.floor(fromMs / DAY) - 1; day <= Math.ceil(toMs / DAY) + 1; day++) {
     const civil = new Date(day * DAY);
     const y = civil.getUTCFullYear();
@@ -58,15 +57,18 @@ export function buildTimeline(cal: CalendarInput, fromMs: number, toMs: number):
     const d = civil.getUTCDate();
     if (closed.has(isoDate(y, m, d))) continue;
     const spans = cal.weekly[WEEKDAYS[civil.getUTCDay()]!] ?? [];
-    if (spans.length > 0) openDays++;
+    if (spans.length === 0) continue;
+    openDays++;
+    const offset = tzOffset(cal.timeZone, new Date(Date.UTC(y, m - 1, d, 17))) * MINUTE;
     for (const span of spans) {
       const [oh, om] = clock(span.open);
       const [ch, cm] = clock(span.close);
-      const a = new TZDate(y, m - 1, d, oh, om, 0, cal.timeZone).getTime();
-      const b = new TZDate(y, m - 1, d, ch, cm, 0, cal.timeZone).getTime();
+      const a = Date.UTC(y, m - 1, d, oh, om) - offset;
+      const b = Date.UTC(y, m - 1, d, ch, cm) - offset;
       if (b > a) {
         starts.push(a);
         ends.push(b);
+        months.push(m);
         openMinutes += (b - a) / MINUTE;
       }
     }
@@ -75,6 +77,7 @@ export function buildTimeline(cal: CalendarInput, fromMs: number, toMs: number):
     timeZone: cal.timeZone,
     starts,
     ends,
+    months,
     minutesPerOpenDay: openDays > 0 ? openMinutes / openDays : 0,
   };
 }
@@ -89,6 +92,12 @@ function firstEndingAfter(tl: OpenTimeline, t: number): number {
     else hi = mid;
   }
   return lo;
+}
+
+/** Local month of the opening interval at or after `t`. */
+export function monthAt(tl: OpenTimeline, t: number): number {
+  const i = Math.min(firstEndingAfter(tl, t), tl.months.length - 1);
+  return tl.months[i] ?? 1;
 }
 
 /** `t` if the shop is open then, else the next opening. */
@@ -133,13 +142,4 @@ export function placeWork(tl: OpenTimeline, t: number, minutes: number): [number
   }
   if (left > 0) pieces.push([at, at + left]);
   return pieces;
-}
-
-/** A uniformly random open instant within the local day of `dayStartMs`…`dayEndMs`, if any. */
-export function openIntervalsBetween(tl: OpenTimeline, a: number, b: number): [number, number][] {
-  const out: [number, number][] = [];
-  for (let i = firstEndingAfter(tl, a); i < tl.starts.length && tl.starts[i]! < b; i++) {
-    out.push([Math.max(a, tl.starts[i]!), Math.min(b, tl.ends[i]!)]);
-  }
-  return out;
 }

@@ -10,7 +10,7 @@ import {
   addBusinessMinutes,
   buildTimeline,
   localDate,
-  localMonth,
+  monthAt,
   nextOpen,
   placeWork,
   type OpenTimeline,
@@ -29,6 +29,7 @@ import {
   SAFETY_NOTICE,
   STANDARD_STEPS,
   type PartDef,
+  type StepDef,
 } from './catalog';
 import { holidays, NETWORK_NAME, PEOPLE, REGIONS, SHOPS, type ShopDef } from './network';
 import { Rng } from './random';
@@ -355,8 +356,17 @@ export function generate(options: GenerateOptions): SeedData {
     }),
   );
   const stepId = (code: string) => STANDARD_STEPS.findIndex((s) => s.code === code) + 1;
-  const stepsFor = (kind: ReelKind) =>
-    STANDARD_STEPS.filter((s) => !s.appliesTo || s.appliesTo.includes(kind));
+  const stepsByKind = new Map<ReelKind, StepDef[]>();
+  const stepsFor = (kind: ReelKind): StepDef[] => {
+    let steps = stepsByKind.get(kind);
+    if (!steps) {
+      steps = STANDARD_STEPS.filter((s) => !s.appliesTo || s.appliesTo.includes(kind));
+      stepsByKind.set(kind, steps);
+    }
+    return steps;
+  };
+  const stepIds = new Map(STANDARD_STEPS.map((s, i) => [s.code, i + 1]));
+  const requiredCodes = new Set(STANDARD_STEPS.filter((s) => s.required).map((s) => s.code));
 
   data.auditForms.push({
     id: 1,
@@ -477,7 +487,7 @@ export function generate(options: GenerateOptions): SeedData {
     comeback?: SimComeback,
   ): SimJob => {
     const tl = shop.timeline;
-    const month = localMonth(t0, shop.calendar.timeZone);
+    const month = monthAt(tl, t0);
     const load = shop.def.season[month - 1] ?? 1;
     const technicianId = rng.weighted(shop.benchStaff, (s) => s.weight).id;
     const counterId = rng.pick(shop.staffIds);
@@ -636,7 +646,7 @@ export function generate(options: GenerateOptions): SeedData {
         weights.push(0);
         continue;
       }
-      const month = localMonth(a, tl.timeZone);
+      const month = tl.months[i]!;
       const growth = 1 + 0.08 * ((a - startMs) / (365.25 * DAY));
       const w = ((tl.ends[i]! - a) / MINUTE) * (shop.def.season[month - 1] ?? 1) * growth;
       weights.push(w);
@@ -794,7 +804,7 @@ export function generate(options: GenerateOptions): SeedData {
         return;
       data.checklistTicks.push({
         jobId: job.id,
-        stepId: stepId(step.code),
+        stepId: stepIds.get(step.code),
         userId: job.technicianId,
         tickedAt: new Date(at),
         note: null,

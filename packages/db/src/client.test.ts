@@ -1,0 +1,122 @@
+import { sql } from 'drizzle-orm';
+import { cpSync, mkdtempSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterEach, describe, expect, it } from 'vitest';
+import {
+  appliedMigrationCount,
+  closeAllDbs,
+  getDb,
+  journaledMigrationCount,
+  migrate,
+  resolveMigrationsDir,
+  runMigrations,
+} from './client';
+import { regions, shops } from './schema';
+import { freshDb, TARGET } from './test/databases';
+
+describe(`migrations (${TARGET})`, () => {
+  it('apply every journaled migration to an empty database, then nothing on a second run', async () => {
+    const handle = await freshDb();
+    try {
+      expect(await appliedMigrationCount(handle.db)).toBe(0);
+      const journaled = journaledMigrationCount();
+      expect(journaled).toBeGreaterThan(0);
+      expect(await migrate(handle.db, handle.driver)).toBe(journaled);
+      expect(await runMigrations(handle)).toBe(0);
+      expect(await appliedMigrationCount(handle.db)).toBe(journaled);
+
+      const { rows } = await handle.db.execute<{ table_name: string }>(
+        sql`select table_name from information_schema.tables where table_schema = 'public' order by 1`,
+      );
+      const tables = rows.map((r) => r.table_name);
+      for (const t of [
+        'jobs',
+        'job_events',
+        'comebacks',
+        'audit_rounds',
+        'month_closes',
+        'royalty_invoices',
+        'unsubscribe_tokens',
+      ]) {
+        expect(tables).toContain(t);
+      }
+    } finally {
+      await handle.close();
+    }
+  });
+
+  it('give a schema the typed query builder can write to and read back', async () => {
+    const handle = await freshDb();
+    try {
+      await runMigrations(handle);
+      const [region] = await handle.db
+        .insert(regions)
+        .values({ name: 'Test Shore', code: 'test' })
+        .returning();
+      await handle.db.insert(shops).values({
+        regionId: region!.id,
+        name: 'Test Shop',
+        slug: 'test-shop',
+        timeZone: 'America/New_York',
+        openingHours: { mon: [{ open: '09:00', close: '17:00' }] },
+        labourRateCents: 7500,
+        royaltyRateBp: 600,
+      });
+      const found = await handle.db.query.shops.findFirst({ with: { region: true } });
+      expect(found?.region.code).toBe('test');
+      expect(found?.closedDates).toEqual([]);
+      expect(found?.createdAt).toBeInstanceOf(Date);
+      await expect(
+        handle.db
+          .insert(shops)
+          .values({ ...found!, id: undefined, royaltyRateBp: 20_000, slug: 'other' }),
+      ).rejects.toThrow();
+    } finally {
+      await handle.close();
+    }
+  });
+});
+
+describe('migrations folder', () => {
+  it('is found from the module path, or taken from an explicit folder', () => {
+    const dir = resolveMigrationsDir();
+    expect(dir.endsWith(path.join('packages', 'db', 'drizzle'))).toBe(true);
+    expect(resolveMigrationsDir(dir)).toBe(dir);
+  });
+
+  it('prefers REELWRIGHT_MIGRATIONS_DIR over the module path (bundled servers)', () => {
+    const previous = process.env.REELWRIGHT_MIGRATIONS_DIR;
+    const copy = path.join(mkdtempSync(path.join(os.tmpdir(), 'rw-migrations-')), 'drizzle');
+    cpSync(resolveMigrationsDir(), copy, { recursive: true });
+    try {
+      process.env.REELWRIGHT_MIGRATIONS_DIR = copy;
+      expect(resolveMigrationsDir()).toBe(copy);
+      // A folder without a journal is passed over.
+      process.env.REELWRIGHT_MIGRATIONS_DIR = path.dirname(copy);
+      expect(resolveMigrationsDir()).not.toBe(path.dirname(copy));
+    } finally {
+      if (previous === undefined) delete process.env.REELWRIGHT_MIGRATIONS_DIR;
+      else process.env.REELWRIGHT_MIGRATIONS_DIR = previous;
+    }
+  });
+});
+
+describe('getDb', () => {
+  afterEach(() => closeAllDbs());
+
+  it('opens one handle per database for the whole process, migrating once', async () => {
+    const dataDir = path.join(mkdtempSync(path.join(os.tmpdir(), 'rw-getdb-')), 'pglite');
+    const [a, b] = await Promise.all([
+      getDb({ dataDir, migrate: true }),
+      getDb({ dataDir, migrate: true }),
+    ]);
+    expect(a).toBe(b);
+    expect(a.driver).toBe('pglite');
+    expect(a.migrationsApplied).toBe(journaledMigrationCount());
+    await a.close();
+    const c = await getDb({ dataDir, migrate: true });
+    expect(c).not.toBe(a);
+    expect(c.migrationsApplied).toBe(0);
+  });
+});
