@@ -970,8 +970,7 @@ export function generate(options: GenerateOptions): SeedData {
       discountCents,
       comebackOfJobId: job.comeback ? job.comeback.original.id : null,
       incompleteChecklistReason:
-        readyAt !== null &&
-        [...job.skipped].some((c) => STANDARD_STEPS.find((s) => s.code === c)?.required)
+        readyAt !== null && [...job.skipped].some((c) => requiredCodes.has(c))
           ? job.skipReason
           : null,
       customerTurnaroundMinutes,
