@@ -42,8 +42,8 @@ const optionalText = (max: number, label: string) =>
     .string()
     .trim()
     .max(max, `${label} must be at most ${max} characters`)
-    .optional()
-    .transform((s) => (s ? s : undefined));
+    .transform((s) => (s ? s : undefined))
+    .optional();
 
 const SORTS = ['checkedInAt', 'promisedAt', 'stateChangedAt', 'customer', 'id'] as const;
 export type JobSort = (typeof SORTS)[number];
@@ -99,8 +99,8 @@ export const customerInput = z.object({
   ),
   email: z
     .union([z.literal(''), z.email('Enter a valid e-mail address').trim().toLowerCase()])
-    .optional()
-    .transform((s) => (s ? s : undefined)),
+    .transform((s) => (s ? s : undefined))
+    .optional(),
   reminderConsent: z.boolean().default(false),
 });
 

@@ -1,0 +1,175 @@
+'use client';
+
+import { useQueryClient } from '@tanstack/react-query';
+import { Panel } from '~/components/ui';
+import { formatInZone } from '~/lib/format';
+import { jobKeys, sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { STEP_GROUP_LABELS } from '../../../_components/format';
+import { ErrorNote } from './error-note';
+import { useJobMutation } from './use-job-mutation';
+
+const DEFAULT_SAFETY =
+  'Degreasers and solvents, springs under tension and small parts can hurt people. Follow the ' +
+  'product’s safety data sheets, local regulations and licensed practice first.';
+
+/**
+ * The checklist of the standard version the job was checked in under, grouped as the standard
+ * groups it, with each step's safety caution beside it. Ticks save at once; they are sent one
+ * after another so the last tick always wins.
+ */
+export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite: boolean }) {
+  const queryClient = useQueryClient();
+  const { checklist } = job;
+  const steps = checklist.groups.flatMap((g) => g.steps);
+  const save = useJobMutation(
+    job.id,
+    (stepIds: number[]) =>
+      sendJson<JobDetailJson>('PUT', `/api/jobs/${job.id}/checklist`, { stepIds }),
+    {
+      scope: 'checklist',
+      onMutate: (stepIds) => {
+        // Show the tick straight away; the answer from the server replaces it.
+        const ticked = new Set(stepIds);
+        queryClient.setQueryData<JobDetailJson>(jobKeys.detail(job.id), (old) =>
+          old
+            ? {
+                ...old,
+                checklist: {
+                  ...old.checklist,
+                  groups: old.checklist.groups.map((g) => ({
+                    ...g,
+                    steps: g.steps.map((s) => ({ ...s, ticked: ticked.has(s.id) })),
+                  })),
+                },
+              }
+            : old,
+        );
+      },
+    },
+  );
+  const toggle = (stepId: number, on: boolean) => {
+    const ids = steps.filter((s) => (s.id === stepId ? on : s.ticked)).map((s) => s.id);
+    save.mutate(ids);
+  };
+  const ticked = steps.filter((s) => s.ticked).length;
+  const requiredLeft = steps.filter((s) => s.required && !s.ticked).length;
+
+  if (!checklist.standard)
+    return (
+      <Panel title="Service checklist">
+        <p className="text-slate-700">
+          This job was recorded without a service standard (for example, imported from another
+          system), so it has no checklist.
+        </p>
+      </Panel>
+    );
+
+  return (
+    <Panel
+      title="Service checklist"
+      description={`${checklist.standard.title}. ${ticked} of ${steps.length} steps ticked${
+        requiredLeft > 0
+          ? `; ${requiredLeft} required ${requiredLeft === 1 ? 'step' : 'steps'} left.`
+          : '; every required step is done.'
+      }`}
+    >
+      <aside
+        aria-label="Safety"
+        className="mb-5 rounded-md border border-amber-300 bg-amber-50 px-4 py-3 text-amber-950"
+      >
+        <p className="font-semibold">Safety</p>
+        <p className="mt-1">{checklist.standard.safetyNotice ?? DEFAULT_SAFETY}</p>
+      </aside>
+      {job.incompleteChecklistReason && (
+        <p className="mb-5 rounded-md border border-brass-200 bg-brass-50 px-4 py-3 text-brass-900">
+          <span className="font-semibold">Marked ready with steps unticked:</span>{' '}
+          {job.incompleteChecklistReason}
+        </p>
+      )}
+      <div className="space-y-6">
+        {checklist.groups.map((group) => (
+          <fieldset key={group.group}>
+            <legend className="text-base font-semibold tracking-wide text-slate-700 uppercase">
+              {STEP_GROUP_LABELS[group.group] ?? group.group}
+            </legend>
+            <ul className="mt-2 divide-y divide-sand-200 rounded-md border border-sand-200">
+              {group.steps.map((step) => (
+                <li
+                  key={step.id}
+                  className="gap-4 px-3 py-2 md:grid md:grid-cols-[minmax(0,1fr)_15rem]"
+                >
+                  <div className="flex items-start gap-3">
+                    {canWrite ? (
+                      <input
+                        id={`step-${step.id}`}
+                        type="checkbox"
+                        checked={step.ticked}
+                        onChange={(e) => toggle(step.id, e.target.checked)}
+                        aria-describedby={
+                          step.safetyCaution ? `step-${step.id}-caution` : undefined
+                        }
+                        className="mt-2.5 size-7 shrink-0 accent-sea-700"
+                      />
+                    ) : (
+                      <span
+                        aria-hidden="true"
+                        className={`mt-2 inline-flex size-7 shrink-0 items-center justify-center rounded border text-lg ${
+                          step.ticked
+                            ? 'border-sea-700 bg-sea-700 text-white'
+                            : 'border-slate-400 bg-white'
+                        }`}
+                      >
+                        {step.ticked ? '✓' : ''}
+                      </span>
+                    )}
+                    <div className="min-h-12 py-1.5">
+                      {canWrite ? (
+                        <label
+                          htmlFor={`step-${step.id}`}
+                          className="cursor-pointer text-lg font-medium"
+                        >
+                          {step.title}
+                        </label>
+                      ) : (
+                        <p className="text-lg font-medium">
+                          {step.title}
+                          <span className="sr-only">{step.ticked ? ' (done)' : ' (not done)'}</span>
+                        </p>
+                      )}
+                      <span
+                        className={`ml-2 rounded px-1.5 py-0.5 text-xs font-semibold uppercase ${
+                          step.required ? 'bg-sea-50 text-sea-800' : 'bg-sand-100 text-slate-700'
+                        }`}
+                      >
+                        {step.required ? 'Required' : 'Optional'}
+                      </span>
+                      {step.instructions && (
+                        <p className="mt-0.5 text-slate-700">{step.instructions}</p>
+                      )}
+                      {step.ticked && step.tickedAt && (
+                        <p className="mt-0.5 text-sm text-slate-600">
+                          Ticked {step.tickedBy ? `by ${step.tickedBy}, ` : ''}
+                          {formatInZone(new Date(step.tickedAt), job.shop.timeZone, 'd MMM, HH:mm')}
+                        </p>
+                      )}
+                    </div>
+                  </div>
+                  {step.safetyCaution && (
+                    <p
+                      id={`step-${step.id}-caution`}
+                      className="mt-1 mb-1 ml-10 rounded-md border-l-4 border-amber-500 bg-amber-50 px-3 py-2 text-amber-950 md:mt-1 md:ml-0 md:self-start"
+                    >
+                      <span className="font-semibold">Caution: </span>
+                      {step.safetyCaution}
+                    </p>
+                  )}
+                </li>
+              ))}
+            </ul>
+          </fieldset>
+        ))}
+      </div>
+      <ErrorNote error={save.error} />
+    </Panel>
+  );
+}

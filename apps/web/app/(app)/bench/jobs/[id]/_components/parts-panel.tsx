@@ -1,0 +1,171 @@
+'use client';
+
+import { useState, type FormEvent } from 'react';
+import { Empty, Panel } from '~/components/ui';
+import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { parseMoney, partInput } from '~/lib/validators/jobs';
+import { formatCents } from '../../../_components/format';
+import { ErrorNote } from './error-note';
+import { useJobMutation } from './use-job-mutation';
+
+const blank = { name: '', partNumber: '', quantity: '1', unitPrice: '' };
+const inputClass =
+  'mt-1 block min-h-12 w-full rounded-md border border-slate-400 bg-white px-3 text-lg aria-invalid:border-brick-600';
+
+export function PartsPanel({ job, canWrite }: { job: JobDetailJson; canWrite: boolean }) {
+  const [form, setForm] = useState(blank);
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const add = useJobMutation(job.id, (body: unknown) =>
+    sendJson<JobDetailJson>('POST', `/api/jobs/${job.id}/parts`, body),
+  );
+  const remove = useJobMutation(job.id, (partId: number) =>
+    sendJson<JobDetailJson>('DELETE', `/api/jobs/${job.id}/parts/${partId}`),
+  );
+
+  function onSubmit(event: FormEvent) {
+    event.preventDefault();
+    const cents = parseMoney(form.unitPrice);
+    const parsed = partInput.safeParse({
+      name: form.name,
+      partNumber: form.partNumber,
+      quantity: /^\d+$/.test(form.quantity.trim()) ? Number(form.quantity) : Number.NaN,
+      unitPriceCents: cents,
+    });
+    const next: Record<string, string> = {};
+    if (cents === undefined) next.unitPriceCents = 'Enter a price such as 12.50';
+    if (!parsed.success)
+      for (const issue of parsed.error.issues) next[String(issue.path[0])] ??= issue.message;
+    setErrors(next);
+    if (!parsed.success || Object.keys(next).length > 0) return;
+    add.mutate(parsed.data, { onSuccess: () => setForm(blank) });
+  }
+
+  const field = (key: string) => ({
+    'aria-invalid': errors[key] ? true : undefined,
+    'aria-describedby': errors[key] ? `part-${key}-error` : undefined,
+  });
+
+  return (
+    <Panel
+      title="Parts"
+      description="Parts fitted to this reel; the job’s parts total follows these lines."
+    >
+      {job.parts.length === 0 ? (
+        <Empty>No parts on this job yet.</Empty>
+      ) : (
+        <div className="overflow-x-auto">
+          <table className="w-full min-w-[32rem] text-left">
+            <caption className="sr-only">Parts on job #{job.id}</caption>
+            <thead>
+              <tr className="border-b border-sand-300 text-sm text-slate-600">
+                <th scope="col" className="py-2 pr-3 font-medium">
+                  Part
+                </th>
+                <th scope="col" className="py-2 pr-3 font-medium">
+                  Part number
+                </th>
+                <th scope="col" className="num py-2 pr-3 font-medium">
+                  Qty
+                </th>
+                <th scope="col" className="num py-2 pr-3 font-medium">
+                  Unit price
+                </th>
+                <th scope="col" className="num py-2 pr-3 font-medium">
+                  Line total
+                </th>
+                {canWrite && (
+                  <th scope="col" className="py-2 font-medium">
+                    <span className="sr-only">Remove</span>
+                  </th>
+                )}
+              </tr>
+            </thead>
+            <tbody>
+              {job.parts.map((p) => (
+                <tr key={p.id} className="border-b border-sand-100">
+                  <th scope="row" className="py-2 pr-3 font-medium">
+                    {p.name}
+                  </th>
+                  <td className="py-2 pr-3 text-slate-700">{p.partNumber ?? '–'}</td>
+                  <td className="num py-2 pr-3">{p.quantity}</td>
+                  <td className="num py-2 pr-3">{formatCents(p.unitPriceCents)}</td>
+                  <td className="num py-2 pr-3">{formatCents(p.lineCents)}</td>
+                  {canWrite && (
+                    <td className="py-1 text-right">
+                      <button
+                        type="button"
+                        onClick={() => remove.mutate(p.id)}
+                        disabled={remove.isPending}
+                        aria-label={`Remove ${p.name}`}
+                        className="min-h-11 rounded-md px-3 font-medium text-brick-700 underline underline-offset-2 hover:bg-brick-50"
+                      >
+                        Remove
+                      </button>
+                    </td>
+                  )}
+                </tr>
+              ))}
+            </tbody>
+            <tfoot>
+              <tr className="font-semibold">
+                <th scope="row" colSpan={4} className="py-2 pr-3">
+                  Parts total
+                </th>
+                <td className="num py-2 pr-3">{formatCents(job.money.partsCents)}</td>
+                {canWrite && <td />}
+              </tr>
+            </tfoot>
+          </table>
+        </div>
+      )}
+      <ErrorNote error={remove.error} />
+      {canWrite && (
+        <form onSubmit={onSubmit} noValidate className="mt-5 border-t border-sand-200 pt-5">
+          <h3 className="font-semibold text-slate-900">Add a part</h3>
+          <div className="mt-2 grid gap-3 sm:grid-cols-2 md:grid-cols-[2fr_1.2fr_0.6fr_1fr]">
+            {(
+              [
+                ['name', 'Part', 'text', undefined],
+                ['partNumber', 'Part number (optional)', 'text', undefined],
+                ['quantity', 'Quantity', 'text', 'numeric'],
+                ['unitPrice', 'Unit price ($)', 'text', 'decimal'],
+              ] as const
+            ).map(([key, label, type, mode]) => {
+              const errorKey = key === 'unitPrice' ? 'unitPriceCents' : key;
+              return (
+                <div key={key}>
+                  <label htmlFor={`part-${key}`} className="block font-medium text-slate-800">
+                    {label}
+                  </label>
+                  <input
+                    id={`part-${key}`}
+                    type={type}
+                    inputMode={mode}
+                    value={form[key]}
+                    onChange={(e) => setForm({ ...form, [key]: e.target.value })}
+                    {...field(errorKey)}
+                    aria-describedby={errors[errorKey] ? `part-${errorKey}-error` : undefined}
+                    className={inputClass}
+                  />
+                  {errors[errorKey] && (
+                    <p id={`part-${errorKey}-error`} className="mt-1 text-brick-700">
+                      {errors[errorKey]}
+                    </p>
+                  )}
+                </div>
+              );
+            })}
+          </div>
+          <button
+            type="submit"
+            disabled={add.isPending}
+            className="mt-4 inline-flex min-h-12 items-center rounded-md bg-sea-700 px-5 font-semibold text-white hover:bg-sea-800 disabled:opacity-70"
+          >
+            {add.isPending ? 'Adding…' : 'Add part'}
+          </button>
+          <ErrorNote error={add.error} />
+        </form>
+      )}
+    </Panel>
+  );
+}
