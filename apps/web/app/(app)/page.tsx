@@ -66,7 +66,11 @@ async function ShopHome({ principal, shopId }: { principal: Principal; shopId: n
   const mine = principal.role === 'technician';
   const [counts, open] = await Promise.all([
     jobCounts(principal, shopId),
-    oldestOpenJobs(principal, shopId, { technicianId: mine ? principal.id : undefined, limit: 12 }),
+    oldestOpenJobs(principal, shopId, {
+      technicianId: mine ? principal.id : undefined,
+      benchOnly: mine,
+      limit: 12,
+    }),
   ]);
   const n = (k: keyof typeof JOB_STATE_LABELS) => formatCount(counts.byState[k] ?? 0);
   return (
@@ -75,7 +79,7 @@ async function ShopHome({ principal, shopId }: { principal: Principal; shopId: n
         title={mine ? 'Your bench' : `${shop.name} today`}
         lead={
           mine
-            ? `Your open jobs at ${shop.name}, oldest first.`
+            ? `The reels assigned to you at ${shop.name} that still need work, oldest first.`
             : `${shop.region.name} · times shown in ${shop.timeZone.replace('_', ' ')}`
         }
       />

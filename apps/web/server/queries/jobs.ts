@@ -6,6 +6,7 @@ import type { Principal } from '../principal';
 import { getShop } from './shops';
 
 const OPEN_STATES: JobState[] = ['checked_in', 'on_bench', 'waiting_parts', 'ready'];
+const BENCH_STATES: JobState[] = ['checked_in', 'on_bench', 'waiting_parts'];
 
 export interface OpenJobRow {
   id: number;
@@ -20,12 +21,13 @@ export interface OpenJobRow {
 
 /**
  * The shop's jobs not yet collected, oldest check-in first. The shop must be in the caller's scope
- * (404 otherwise); `technicianId` narrows to one technician's work.
+ * (404 otherwise); `technicianId` narrows to one technician's work, `benchOnly` leaves out reels
+ * that are finished and only waiting for the customer.
  */
 export async function oldestOpenJobs(
   principal: Principal,
   shopId: number,
-  options: { technicianId?: number; limit?: number } = {},
+  options: { technicianId?: number; limit?: number; benchOnly?: boolean } = {},
 ): Promise<OpenJobRow[]> {
   await getShop(principal, shopId);
   const conn = await db();
@@ -48,7 +50,7 @@ export async function oldestOpenJobs(
     .where(
       and(
         eq(jobs.shopId, shopId),
-        inArray(jobs.state, OPEN_STATES),
+        inArray(jobs.state, options.benchOnly ? BENCH_STATES : OPEN_STATES),
         options.technicianId === undefined
           ? undefined
           : eq(jobs.technicianId, options.technicianId),
