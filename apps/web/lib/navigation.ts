@@ -12,6 +12,8 @@ export interface NavItem {
 const ITEMS: NavItem[] = [
   { href: '/', label: 'Home', permission: 'shops:read' },
   { href: '/shops', label: 'Shops', permission: 'network:read', multiShop: true },
+  { href: '/month-close', label: 'Month close', permission: 'month-close:read' },
+  { href: '/reminders', label: 'Reminders', permission: 'reminders:send' },
   { href: '/settings', label: 'Settings', permission: 'settings:manage' },
 ];
 
