@@ -6,8 +6,10 @@ cd "$(dirname "$0")/../.."
 port="${E2E_PORT:-3100}"
 data_dir="$(mktemp -d /tmp/reelwright-e2e.XXXXXX)"
 fakes_pid=""
+stripe_pid=""
 cleanup() {
   if [ -n "$fakes_pid" ]; then kill "$fakes_pid" 2>/dev/null || true; wait "$fakes_pid" 2>/dev/null || true; fi
+  if [ -n "$stripe_pid" ]; then kill "$stripe_pid" 2>/dev/null || true; wait "$stripe_pid" 2>/dev/null || true; fi
   rm -rf "$data_dir"
 }
 trap cleanup EXIT
@@ -26,6 +28,16 @@ set -a
 # shellcheck disable=SC1091
 source "$data_dir/fakes.env"
 set +a
+# The payment provider's stand-in for royalty invoices; the tests sign webhooks with this secret.
+FAKE_STRIPE_PORT=0 FAKE_STRIPE_ENV_FILE="$data_dir/stripe.env" node apps/web/scripts/fake-stripe.mjs &
+stripe_pid=$!
+for _ in $(seq 1 100); do [ -s "$data_dir/stripe.env" ] && break; sleep 0.1; done
+[ -s "$data_dir/stripe.env" ] || { echo "✗ the payment fake did not start" >&2; exit 1; }
+set -a
+# shellcheck disable=SC1091
+source "$data_dir/stripe.env"
+set +a
+export STRIPE_WEBHOOK_SECRET="${STRIPE_WEBHOOK_SECRET:-whsec_reelwright_end_to_end_only}"
 export PGLITE_DATA_DIR="$data_dir/pglite"
 export NEXTAUTH_SECRET="end-to-end-tests-only-secret-0123456789"
 export NEXTAUTH_URL="http://127.0.0.1:$port"

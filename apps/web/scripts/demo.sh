@@ -58,6 +58,21 @@ if [ "${FAKES_S3:-1}" != 0 ] || [ "${FAKES_SMTP:-1}" != 0 ]; then
   rm -f "$fakes_env"
 fi
 
+# Royalty invoices: Stripe when STRIPE_SECRET_KEY is set, otherwise the local stand-in.
+if [ -z "${STRIPE_SECRET_KEY:-}${STRIPE_API_BASE:-}" ]; then
+  echo "› starting the local payment fake"
+  stripe_env="$(mktemp /tmp/reelwright-stripe.XXXXXX)"
+  rm -f "$stripe_env"
+  FAKE_STRIPE_ENV_FILE="$stripe_env" node apps/web/scripts/fake-stripe.mjs &
+  for _ in $(seq 1 100); do [ -s "$stripe_env" ] && break; sleep 0.1; done
+  [ -s "$stripe_env" ] || { echo "✗ the payment fake did not start (port in use? set FAKE_STRIPE_PORT)"; exit 1; }
+  set -a
+  # shellcheck disable=SC1090
+  source "$stripe_env"
+  set +a
+  rm -f "$stripe_env"
+fi
+
 cat <<MSG
 
   Reelwright is starting on http://127.0.0.1:$PORT
@@ -75,6 +90,7 @@ cat <<MSG
   Data: ${DATABASE_URL:+PostgreSQL at DATABASE_URL}${DATABASE_URL:-embedded PGlite in $PGLITE_DATA_DIR} (kept between runs)
   Photos: ${S3_ENDPOINT:-AWS S3, region ${S3_REGION:-us-east-1}}, bucket ${S3_BUCKET:-reelwright-photos}
   E-mail: ${MAIL_CATCHER_URL:+caught locally; the owner sees it at http://127.0.0.1:$PORT/dev/mail}${MAIL_CATCHER_URL:-sent through SMTP_URL}
+  Royalty invoices: ${STRIPE_API_BASE:+the local payment fake at $STRIPE_API_BASE}${STRIPE_API_BASE:-Stripe}
   Stop with Ctrl-C.
 
 MSG
