@@ -29,6 +29,16 @@ export function longDate(day: string): string {
   }).format(new Date(Date.UTC(y!, m! - 1, d!)));
 }
 
+/** "1 April" from a season date "MM-DD". */
+export function seasonDate(monthDay: string): string {
+  const [m, d] = monthDay.split('-').map(Number);
+  return new Intl.DateTimeFormat('en-GB', {
+    day: 'numeric',
+    month: 'long',
+    timeZone: 'UTC',
+  }).format(new Date(Date.UTC(2001, m! - 1, d!)));
+}
+
 /** The pre-season service reminder a consenting customer gets, with its unsubscribe link. */
 export function serviceReminderEmail(input: ServiceReminderInput) {
   const advice =
