@@ -50,6 +50,8 @@ export interface SavedSample {
     decision: AuditRound['decision'];
   };
   correctiveActionId: number | null;
+  /** The first sampled job, in draw order, not finished yet; null when all are. */
+  nextUnscoredJobId: number | null;
 }
 
 /**
@@ -224,6 +226,12 @@ export async function saveSample(
           now,
         });
     }
+    const [nextUnscored] = await tx
+      .select({ jobId: auditSamples.jobId })
+      .from(auditSamples)
+      .where(and(eq(auditSamples.roundId, round.id), isNull(auditSamples.completedAt)))
+      .orderBy(asc(auditSamples.position))
+      .limit(1);
     return {
       roundId,
       jobId,
@@ -234,6 +242,7 @@ export async function saveSample(
       items: items.length,
       round: { status, scored, sampleSize: round.sampleSize, failures, decision },
       correctiveActionId,
+      nextUnscoredJobId: nextUnscored?.jobId ?? null,
     };
   });
 }

@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { NotAllowed, PageHeader, Panel } from '~/components/ui';
 import { can, ROLE_LABELS } from '~/lib/permissions';
 import { listShops } from '~/server/queries/shops';
@@ -16,6 +17,17 @@ export default async function SettingsPage() {
     <>
       <PageHeader title="Settings" lead="The network's shops and the people who work in them." />
       <div className="space-y-8">
+        <Panel title="Standards" description="What the network's work is measured against.">
+          <Link
+            href="/settings/audit-form"
+            className="font-medium text-sea-700 underline underline-offset-2 hover:text-sea-900"
+          >
+            Audit form
+          </Link>
+          <p className="text-slate-600">
+            The items auditors score sampled jobs against, with weights and critical items.
+          </p>
+        </Panel>
         <Panel
           title="Shops"
           description="Each shop's region and time zone; all times at a shop are shown in its zone."
