@@ -1,0 +1,97 @@
+// GET, POST /api/imports/jobs – the shop's recent imports; import a CSV of past jobs, all rows in one transaction or none
+import { columnMappingSchema, IMPORT_MAX_BYTES } from '~/lib/validators/imports';
+import { route } from '~/server/api';
+import { badRequest, fieldErrorsOf, problemResponse } from '~/server/errors';
+import { recentImports } from '~/server/imports/history';
+import { prepareImport, runImport, type ImportProgress } from '~/server/imports/jobs';
+
+export const dynamic = 'force-dynamic';
+// A 50,000-row file takes a while to store.
+export const maxDuration = 300;
+
+export const GET = route({ permission: 'jobs:import' }, async ({ principal }) => ({
+  imports: await recentImports(principal),
+}));
+
+/**
+ * multipart/form-data with `file` (the CSV) and `mapping` (JSON: field → the file's heading).
+ * 201 with the summary; 400 listing every bad row and column (nothing imported); 409 when the same
+ * file was imported before. With `Accept: application/x-ndjson` the answer streams progress lines
+ * `{"progress":{…}}` while rows are stored, then `{"done":{…}}` or `{"error":{…}}`.
+ */
+export const POST = route({ permission: 'jobs:import' }, async ({ principal, request }) => {
+  const form = await request.formData().catch(() => {
+    throw badRequest('Send the file as multipart/form-data with the fields file and mapping.');
+  });
+  const file = form.get('file');
+  if (!(file instanceof File) || file.size === 0) {
+    throw badRequest('Choose a CSV file to import.', [{ field: 'file', message: 'No file' }]);
+  }
+  if (file.size > IMPORT_MAX_BYTES) {
+    throw badRequest('The file is larger than 50 MB; split it into smaller files.', [
+      { field: 'file', message: 'Larger than 50 MB' },
+    ]);
+  }
+  let rawMapping: unknown;
+  try {
+    rawMapping = JSON.parse(String(form.get('mapping') ?? '{}'));
+  } catch {
+    throw badRequest('The column mapping must be JSON.', [
+      { field: 'mapping', message: 'Not JSON' },
+    ]);
+  }
+  const mapping = columnMappingSchema.safeParse(rawMapping);
+  if (!mapping.success) {
+    throw badRequest('Some columns are not mapped.', fieldErrorsOf(mapping.error, 'mapping'));
+  }
+
+  const prepared = await prepareImport(principal, {
+    fileName: file.name || 'import.csv',
+    bytes: new Uint8Array(await file.arrayBuffer()),
+    mapping: mapping.data,
+  });
+  if (!prepared.ok) {
+    const rowsWithErrors = new Set(prepared.errors.map((e) => e.row)).size;
+    return Response.json(
+      {
+        type: '/problems/invalid-import',
+        title: 'The file has problems',
+        status: 400,
+        detail: `${prepared.errors.length} problem${prepared.errors.length === 1 ? '' : 's'} in ${rowsWithErrors} of ${prepared.rowCount} rows; nothing was imported.`,
+        instance: request.nextUrl.pathname,
+        batchId: prepared.batchId,
+        rowCount: prepared.rowCount,
+        errors: prepared.errors.map((e) => ({
+          field: e.column ? `row ${e.row}, ${e.column}` : `row ${e.row}`,
+          message: e.message,
+        })),
+        rows: prepared.errors,
+      },
+      { status: 400, headers: { 'content-type': 'application/problem+json' } },
+    );
+  }
+
+  if (!request.headers.get('accept')?.includes('application/x-ndjson')) {
+    return Response.json(await runImport(principal, prepared), { status: 201 });
+  }
+  const encoder = new TextEncoder();
+  const stream = new ReadableStream<Uint8Array>({
+    async start(controller) {
+      const send = (line: unknown) =>
+        controller.enqueue(encoder.encode(`${JSON.stringify(line)}\n`));
+      try {
+        const summary = await runImport(principal, prepared, (progress: ImportProgress) =>
+          send({ progress }),
+        );
+        send({ done: summary });
+      } catch (error) {
+        send({ error: await problemResponse(error, request.nextUrl.pathname).json() });
+      }
+      controller.close();
+    },
+  });
+  return new Response(stream, {
+    status: 200,
+    headers: { 'content-type': 'application/x-ndjson', 'cache-control': 'no-store' },
+  });
+});

@@ -1,0 +1,563 @@
+import { tzOffset } from '@date-fns/tz';
+import { z } from 'zod';
+import { JOB_STATE_LABELS, REEL_KIND_LABELS, SERVICE_LABELS, type JobState } from '../labels';
+
+// The CSV import of past jobs: the fields a file's columns map to, and the checks every row gets.
+// The same code runs in the browser (a first check while the file is read) and on the server
+// (the check that decides), so both report the same rows, columns and reasons.
+
+export const IMPORT_FIELDS = [
+  {
+    key: 'external_ref',
+    label: 'Job number in the old system',
+    required: true,
+    example: 'OLD-10231',
+    hint: 'Unique per job; a job already imported with this number is refused.',
+  },
+  { key: 'customer_name', label: 'Customer name', required: true, example: 'Rowan Tillery' },
+  { key: 'customer_phone', label: 'Customer phone', required: false, example: '207 555 0143' },
+  {
+    key: 'customer_email',
+    label: 'Customer e-mail',
+    required: false,
+    example: 'rowan@example.test',
+  },
+  {
+    key: 'reminder_consent',
+    label: 'Agreed to reminders',
+    required: false,
+    example: 'yes',
+    hint: 'yes or no; empty means no.',
+  },
+  {
+    key: 'reel_kind',
+    label: 'Reel kind',
+    required: true,
+    example: 'spinning',
+    hint: 'spinning, baitcasting, conventional, lever-drag, fly or spincast.',
+  },
+  { key: 'reel_maker', label: 'Reel maker', required: true, example: 'Tidewake' },
+  { key: 'reel_model', label: 'Reel model', required: true, example: 'Seaspin' },
+  { key: 'reel_size', label: 'Reel size', required: false, example: '4000' },
+  { key: 'bearing_count', label: 'Bearing count', required: false, example: '6' },
+  { key: 'gear_ratio', label: 'Gear ratio', required: false, example: '6.2:1' },
+  {
+    key: 'use_profile',
+    label: 'Use (light or heavy)',
+    required: false,
+    example: 'heavy',
+    hint: 'Empty means light.',
+  },
+  {
+    key: 'water',
+    label: 'Water (salt or fresh)',
+    required: false,
+    example: 'salt',
+    hint: 'Empty means fresh.',
+  },
+  {
+    key: 'service_type',
+    label: 'Service',
+    required: true,
+    example: 'tune-up',
+    hint: 'tune-up, overhaul, repair or parts install.',
+  },
+  {
+    key: 'state',
+    label: 'State',
+    required: true,
+    example: 'collected',
+    hint: 'checked in, on the bench, waiting on parts, ready for pickup or collected.',
+  },
+  {
+    key: 'checked_in_at',
+    label: 'Checked in',
+    required: true,
+    example: '2025-03-03 10:15',
+    hint: 'YYYY-MM-DD HH:mm in the shop’s time, or ISO 8601 with an offset.',
+  },
+  { key: 'promised_at', label: 'Promised', required: false, example: '2025-03-07 17:00' },
+  {
+    key: 'parts_wait_from',
+    label: 'Waiting on parts from',
+    required: false,
+    example: '2025-03-04 11:00',
+  },
+  {
+    key: 'parts_wait_to',
+    label: 'Parts arrived',
+    required: false,
+    example: '2025-03-06 09:30',
+  },
+  {
+    key: 'ready_at',
+    label: 'Ready for pickup',
+    required: false,
+    example: '2025-03-06 15:40',
+    hint: 'Needed for ready and collected jobs.',
+  },
+  {
+    key: 'collected_at',
+    label: 'Collected',
+    required: false,
+    example: '2025-03-08 12:05',
+    hint: 'Needed for collected jobs.',
+  },
+  {
+    key: 'technician_email',
+    label: 'Technician’s e-mail',
+    required: false,
+    example: 'tech.marram@saltwick.test',
+    hint: 'Someone who works at your shop in Reelwright.',
+  },
+  { key: 'bench_minutes', label: 'Bench minutes', required: false, example: '75' },
+  {
+    key: 'labour',
+    label: 'Labour charged',
+    required: false,
+    example: '45.00',
+    hint: 'Dollars and cents; empty means 0.',
+  },
+  { key: 'parts', label: 'Parts charged', required: false, example: '12.50' },
+  { key: 'discount', label: 'Discount', required: false, example: '0.00' },
+  {
+    key: 'complaint',
+    label: 'Customer’s complaint',
+    required: false,
+    example: 'Drag slips under load',
+  },
+  {
+    key: 'findings',
+    label: 'Findings',
+    required: false,
+    example: 'Drag washers glazed; replaced',
+  },
+] as const satisfies readonly {
+  key: string;
+  label: string;
+  required: boolean;
+  example: string;
+  hint?: string;
+}[];
+
+export type ImportField = (typeof IMPORT_FIELDS)[number]['key'];
+export const IMPORT_FIELD_KEYS = IMPORT_FIELDS.map((f) => f.key) as ImportField[];
+export const REQUIRED_IMPORT_FIELDS = IMPORT_FIELDS.filter((f) => f.required).map((f) => f.key);
+
+/** Most rows one file may hold. */
+export const IMPORT_MAX_ROWS = 100_000;
+export const IMPORT_MAX_BYTES = 50 * 1024 * 1024;
+
+/** A file header → field guess: same words, ignoring case, spaces, dashes and underscores. */
+export function guessMapping(headers: readonly string[]): Partial<Record<ImportField, string>> {
+  const norm = (s: string) => s.toLowerCase().replace(/[^a-z0-9]/g, '');
+  const byNorm = new Map(headers.map((h) => [norm(h), h]));
+  const mapping: Partial<Record<ImportField, string>> = {};
+  for (const field of IMPORT_FIELDS) {
+    const hit = byNorm.get(norm(field.key)) ?? byNorm.get(norm(field.label));
+    if (hit) mapping[field.key] = hit;
+  }
+  return mapping;
+}
+
+/** Field → file header; a field left out is not in the file. */
+export const columnMappingSchema = z
+  .partialRecord(z.enum(IMPORT_FIELD_KEYS as [ImportField, ...ImportField[]]), z.string().min(1))
+  .superRefine((mapping, ctx) => {
+    for (const key of REQUIRED_IMPORT_FIELDS) {
+      if (!mapping[key]) {
+        const label = IMPORT_FIELDS.find((f) => f.key === key)!.label;
+        ctx.addIssue({ code: 'custom', path: [key], message: `Choose the column for “${label}”` });
+      }
+    }
+  });
+export type ColumnMapping = z.infer<typeof columnMappingSchema>;
+
+export interface ImportRowError {
+  /** The row as a spreadsheet numbers it: the heading is row 1, the first job row 2. */
+  row: number;
+  /** The file's own column heading (or the field, when the column is not mapped). */
+  column?: string;
+  message: string;
+}
+
+export interface ParsedImportRow {
+  row: number;
+  externalRef: string;
+  customer: { name: string; phone: string | null; email: string | null; reminderConsent: boolean };
+  reel: {
+    kind: keyof typeof REEL_KIND_LABELS;
+    maker: string;
+    model: string;
+    size: string | null;
+    bearingCount: number | null;
+    gearRatio: string | null;
+    useProfile: 'light' | 'heavy';
+    water: 'salt' | 'fresh';
+  };
+  serviceType: keyof typeof SERVICE_LABELS;
+  state: JobState;
+  checkedInAt: Date;
+  promisedAt: Date | null;
+  partsWait: { from: Date; to: Date | null } | null;
+  readyAt: Date | null;
+  collectedAt: Date | null;
+  technicianEmail: string | null;
+  benchMinutes: number | null;
+  labourCents: number;
+  partsCents: number;
+  discountCents: number;
+  complaint: string | null;
+  findings: string | null;
+}
+
+const words = (s: string) =>
+  s
+    .toLowerCase()
+    .replace(/[\s_-]+/g, ' ')
+    .trim();
+
+/** Accepts the API word ("lever_drag") or the label ("Lever-drag"), in any case. */
+function choice<T extends string>(
+  what: string,
+  labels: Record<T, string>,
+  extra: Record<string, T> = {},
+) {
+  const lookup = new Map<string, T>();
+  for (const [value, label] of Object.entries(labels) as [T, string][]) {
+    lookup.set(words(value), value);
+    lookup.set(words(label), value);
+  }
+  for (const [k, v] of Object.entries(extra)) lookup.set(words(k), v);
+  const allowed = Object.values<string>(labels)
+    .map((l) => l.toLowerCase())
+    .join(', ');
+  return z.string().transform((raw, ctx) => {
+    if (raw === '') {
+      ctx.addIssue({ code: 'custom', message: `${what} is missing` });
+      return z.NEVER;
+    }
+    const hit = lookup.get(words(raw));
+    if (hit === undefined) {
+      ctx.addIssue({ code: 'custom', message: `“${raw}” is not one of: ${allowed}` });
+      return z.NEVER;
+    }
+    return hit;
+  });
+}
+
+const text = (max: number) =>
+  z
+    .string()
+    .max(max, `Longer than ${max} characters`)
+    .transform((s) => s || null);
+const required = (what: string, max = 200) =>
+  z.string().min(1, `${what} is missing`).max(max, `Longer than ${max} characters`);
+
+const yesNo = z.string().transform((raw, ctx) => {
+  const v = raw.toLowerCase();
+  if (['', 'no', 'n', 'false', '0'].includes(v)) return false;
+  if (['yes', 'y', 'true', '1'].includes(v)) return true;
+  ctx.addIssue({ code: 'custom', message: `“${raw}” is not yes or no` });
+  return z.NEVER;
+});
+
+const MONEY = /^\$?(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$/;
+/** Dollars and cents as written ("1,234.50", "$45") → integer cents, without floating point. */
+const money = z.string().transform((raw, ctx) => {
+  if (raw === '') return 0;
+  const compact = raw.replace(/\s/g, '');
+  if (!MONEY.test(compact)) {
+    ctx.addIssue({ code: 'custom', message: `“${raw}” is not an amount like 45.00` });
+    return z.NEVER;
+  }
+  const [whole, fraction = ''] = compact.replace(/[$,]/g, '').split('.');
+  const cents = Number(whole) * 100 + Number(fraction.padEnd(2, '0'));
+  if (cents > 10_000_000) {
+    ctx.addIssue({ code: 'custom', message: 'More than 100,000.00' });
+    return z.NEVER;
+  }
+  return cents;
+});
+
+const wholeNumber = (max: number) =>
+  z.string().transform((raw, ctx) => {
+    if (raw === '') return null;
+    if (!/^\d+$/.test(raw) || Number(raw) > max) {
+      ctx.addIssue({ code: 'custom', message: `“${raw}” is not a whole number from 0 to ${max}` });
+      return z.NEVER;
+    }
+    return Number(raw);
+  });
+
+const LOCAL = /^(\d{4})-(\d{2})-(\d{2})(?:[ T](\d{2}):(\d{2})(?::(\d{2}))?)?$/;
+const WITH_OFFSET = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/;
+
+const offsets = new Map<string, number>();
+/** The zone's UTC offset in minutes, cached per quarter hour: zones change offset only on those. */
+function offsetAt(timeZone: string, instant: number): number {
+  const key = `${timeZone}|${Math.floor(instant / 900_000)}`;
+  let offset = offsets.get(key);
+  if (offset === undefined) {
+    offset = tzOffset(timeZone, new Date(instant));
+    if (offsets.size > 200_000) offsets.clear();
+    offsets.set(key, offset);
+  }
+  return offset;
+}
+
+/** The instant of a wall-clock time in a zone, right across daylight-saving changes. */
+export function zonedInstant(
+  parts: [number, number, number, number, number, number],
+  timeZone: string,
+): Date {
+  const [y, mo, d, h, mi, s] = parts;
+  const wall = Date.UTC(y, mo - 1, d, h, mi, s);
+  const first = wall - offsetAt(timeZone, wall) * 60_000;
+  const second = wall - offsetAt(timeZone, first) * 60_000;
+  return new Date(second);
+}
+
+/** "YYYY-MM-DD[ HH:mm[:ss]]" in the shop's zone (a date alone means noon), or ISO 8601 with offset. */
+export function parseImportInstant(raw: string, timeZone: string): Date | string {
+  if (WITH_OFFSET.test(raw)) {
+    const t = new Date(raw);
+    return Number.isNaN(t.getTime()) ? `“${raw}” is not a real date and time` : t;
+  }
+  const m = LOCAL.exec(raw);
+  if (!m) return `“${raw}” is not a date like 2025-03-14 or 2025-03-14 10:30`;
+  const [y, mo, d, h = '12', mi = '00', s = '00'] = m.slice(1) as (string | undefined)[];
+  const parts = [y, mo, d, h, mi, s].map(Number) as [
+    number,
+    number,
+    number,
+    number,
+    number,
+    number,
+  ];
+  const check = new Date(Date.UTC(parts[0], parts[1] - 1, parts[2]));
+  if (
+    check.getUTCMonth() !== parts[1] - 1 ||
+    check.getUTCDate() !== parts[2] ||
+    parts[3] > 23 ||
+    parts[4] > 59 ||
+    parts[5] > 59
+  ) {
+    return `“${raw}” is not a real date and time`;
+  }
+  return zonedInstant(parts, timeZone);
+}
+
+const optionalEmail = z
+  .string()
+  .refine((s) => s === '' || z.regexes.email.test(s), 'Not an e-mail address')
+  .transform((s) => s.toLowerCase() || null);
+
+const STATE_EXTRA: Record<string, JobState> = {
+  'checked in': 'checked_in',
+  'on bench': 'on_bench',
+  'waiting parts': 'waiting_parts',
+  'waiting for parts': 'waiting_parts',
+  'ready for pickup': 'ready',
+};
+
+/** One row's plain fields; instants, order of events and cross-field rules are checked after. */
+const rowSchema = z.object({
+  external_ref: required('The job number', 100),
+  customer_name: required('The customer’s name'),
+  customer_phone: text(40),
+  customer_email: optionalEmail,
+  reminder_consent: yesNo,
+  reel_kind: choice('The reel kind', REEL_KIND_LABELS, {
+    lever: 'lever_drag',
+    leverdrag: 'lever_drag',
+  }),
+  reel_maker: required('The reel maker', 100),
+  reel_model: required('The reel model', 100),
+  reel_size: text(40),
+  bearing_count: wholeNumber(60),
+  gear_ratio: text(20),
+  use_profile: z.string().transform((raw, ctx) => {
+    const v = raw.toLowerCase();
+    if (v === '' || v === 'light') return 'light' as const;
+    if (v === 'heavy') return 'heavy' as const;
+    ctx.addIssue({ code: 'custom', message: `“${raw}” is not light or heavy` });
+    return z.NEVER;
+  }),
+  water: z.string().transform((raw, ctx) => {
+    const v = raw.toLowerCase();
+    if (v === '' || v === 'fresh' || v === 'freshwater') return 'fresh' as const;
+    if (v === 'salt' || v === 'saltwater') return 'salt' as const;
+    ctx.addIssue({ code: 'custom', message: `“${raw}” is not salt or fresh` });
+    return z.NEVER;
+  }),
+  service_type: choice('The service', SERVICE_LABELS, { tuneup: 'tune_up' }),
+  state: choice('The state', JOB_STATE_LABELS, STATE_EXTRA),
+  checked_in_at: z.string(),
+  promised_at: z.string(),
+  parts_wait_from: z.string(),
+  parts_wait_to: z.string(),
+  ready_at: z.string(),
+  collected_at: z.string(),
+  technician_email: optionalEmail,
+  bench_minutes: wholeNumber(100_000),
+  labour: money,
+  parts: money,
+  discount: money,
+  complaint: text(2000),
+  findings: text(4000),
+});
+
+export interface ValidateOptions {
+  timeZone: string;
+  /** Nothing may happen after this instant (the moment of the import). */
+  now: Date;
+  /** Field → the file's heading, to name columns the way the user sees them. */
+  mapping: Partial<Record<ImportField, string>>;
+}
+
+/**
+ * Checks every row and returns the good ones parsed, plus every problem with its row, column and
+ * reason. `rows` hold the mapped fields' raw text (missing fields as empty strings).
+ */
+export function validateImportRows(
+  rows: readonly Partial<Record<ImportField, string>>[],
+  options: ValidateOptions,
+): { valid: ParsedImportRow[]; errors: ImportRowError[] } {
+  const valid: ParsedImportRow[] = [];
+  const errors: ImportRowError[] = [];
+  const columnOf = (field: ImportField) => options.mapping[field] ?? field;
+  const seenRefs = new Map<string, number>();
+
+  rows.forEach((raw, index) => {
+    const row = index + 2;
+    const before = errors.length;
+    const fail = (field: ImportField, message: string) =>
+      errors.push({ row, column: columnOf(field), message });
+
+    const input: Record<string, string> = {};
+    for (const key of IMPORT_FIELD_KEYS) input[key] = (raw[key] ?? '').trim();
+    const parsed = rowSchema.safeParse(input);
+    if (!parsed.success) {
+      for (const issue of parsed.error.issues) {
+        fail(issue.path[0] as ImportField, issue.message);
+      }
+    }
+
+    const instant = (field: ImportField): Date | null => {
+      const value = input[field]!;
+      if (value === '') return null;
+      const result = parseImportInstant(value, options.timeZone);
+      if (typeof result === 'string') {
+        fail(field, result);
+        return null;
+      }
+      if (result.getTime() > options.now.getTime()) {
+        fail(field, 'Is in the future');
+        return null;
+      }
+      return result;
+    };
+    const checkedInAt = instant('checked_in_at');
+    if (!input.checked_in_at) fail('checked_in_at', 'The check-in time is missing');
+    // A promise may lie ahead of the import; only its format matters.
+    let promisedAt: Date | null = null;
+    if (input.promised_at) {
+      const p = parseImportInstant(input.promised_at, options.timeZone);
+      if (typeof p === 'string') fail('promised_at', p);
+      else promisedAt = p;
+    }
+    const waitFrom = instant('parts_wait_from');
+    const waitTo = instant('parts_wait_to');
+    const readyAt = instant('ready_at');
+    const collectedAt = instant('collected_at');
+
+    const ref = input.external_ref!;
+    if (ref) {
+      const first = seenRefs.get(ref);
+      if (first !== undefined) fail('external_ref', `The same job number as row ${first}`);
+      else seenRefs.set(ref, row);
+    }
+
+    if (!parsed.success || errors.length > before) return;
+    const v = parsed.data;
+
+    // What the state needs, and the order of events.
+    const done = v.state === 'ready' || v.state === 'collected';
+    if (done && !readyAt)
+      fail(
+        'ready_at',
+        `A job that is ${JOB_STATE_LABELS[v.state].toLowerCase()} needs its ready time`,
+      );
+    if (!done && readyAt)
+      fail(
+        'ready_at',
+        `A job that is ${JOB_STATE_LABELS[v.state].toLowerCase()} has no ready time yet`,
+      );
+    if (v.state === 'collected' && !collectedAt)
+      fail('collected_at', 'A collected job needs its collection time');
+    if (v.state !== 'collected' && collectedAt)
+      fail('collected_at', 'Only a collected job has a collection time');
+    if (waitTo && !waitFrom) fail('parts_wait_from', 'Parts arrived, but the wait has no start');
+    if (waitFrom && !waitTo && v.state !== 'waiting_parts')
+      fail('parts_wait_to', 'The job is no longer waiting on parts: when did they arrive?');
+    if (v.state === 'waiting_parts' && waitTo)
+      fail('parts_wait_to', 'The job is still waiting on parts, so they have not arrived');
+    const order: [ImportField, Date | null][] = [
+      ['checked_in_at', checkedInAt],
+      ['parts_wait_from', waitFrom],
+      ['parts_wait_to', waitTo],
+      ['ready_at', readyAt],
+      ['collected_at', collectedAt],
+    ];
+    let last: [ImportField, Date] | null = null;
+    for (const [field, at] of order) {
+      if (!at) continue;
+      if (last && at.getTime() < last[1].getTime()) {
+        const label = IMPORT_FIELDS.find((f) => f.key === last![0])!.label.toLowerCase();
+        fail(field, `Is before “${label}”`);
+      }
+      last = [field, at];
+    }
+    if (promisedAt && checkedInAt && promisedAt.getTime() < checkedInAt.getTime())
+      fail('promised_at', 'Is before the check-in time');
+    if (v.discount > v.labour + v.parts) fail('discount', 'Is more than labour and parts together');
+    if (errors.length > before || !checkedInAt) return;
+
+    valid.push({
+      row,
+      externalRef: v.external_ref,
+      customer: {
+        name: v.customer_name,
+        phone: v.customer_phone,
+        email: v.customer_email,
+        reminderConsent: v.reminder_consent,
+      },
+      reel: {
+        kind: v.reel_kind,
+        maker: v.reel_maker,
+        model: v.reel_model,
+        size: v.reel_size,
+        bearingCount: v.bearing_count,
+        gearRatio: v.gear_ratio,
+        useProfile: v.use_profile,
+        water: v.water,
+      },
+      serviceType: v.service_type,
+      state: v.state,
+      checkedInAt,
+      promisedAt,
+      partsWait: waitFrom ? { from: waitFrom, to: waitTo } : null,
+      readyAt,
+      collectedAt,
+      technicianEmail: v.technician_email,
+      benchMinutes: v.bench_minutes,
+      labourCents: v.labour,
+      partsCents: v.parts,
+      discountCents: v.discount,
+      complaint: v.complaint,
+      findings: v.findings,
+    });
+  });
+  return { valid, errors };
+}

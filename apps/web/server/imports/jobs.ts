@@ -1,0 +1,495 @@
+import { and, desc, eq, isNotNull, sql } from '@reelwright/db';
+import {
+  activityLog,
+  benchSessions,
+  customers,
+  importBatches,
+  jobEvents,
+  jobs,
+  reels,
+  serviceStandards,
+  shops,
+  users,
+  type NewJobEvent,
+} from '@reelwright/db/schema';
+import { jobTurnaround } from '@reelwright/metrics';
+import Papa from 'papaparse';
+import { createHash } from 'node:crypto';
+import type { JobState } from '~/lib/labels';
+import {
+  IMPORT_FIELD_KEYS,
+  IMPORT_MAX_ROWS,
+  validateImportRows,
+  type ColumnMapping,
+  type ImportField,
+  type ImportRowError,
+  type ParsedImportRow,
+} from '~/lib/validators/imports';
+import { shopCalendar, localDate } from '../bench/calendar';
+import { pgError } from '../bench/shared';
+import { db } from '../db';
+import { badRequest, conflict, forbidden } from '../errors';
+import type { Principal } from '../principal';
+import { bulkInsert } from './bulk';
+
+export interface ImportFile {
+  fileName: string;
+  bytes: Uint8Array;
+  mapping: ColumnMapping;
+}
+
+export type ImportProgress = { phase: 'storing'; done: number; total: number };
+
+export interface ImportSummary {
+  batchId: number;
+  fileName: string;
+  imported: number;
+  customersCreated: number;
+  reelsCreated: number;
+  seconds: number;
+}
+
+export type PreparedImport =
+  | { ok: false; batchId: number; rowCount: number; errors: ImportRowError[] }
+  | {
+      ok: true;
+      shop: typeof shops.$inferSelect;
+      file: ImportFile;
+      digest: string;
+      rows: ParsedImportRow[];
+      technicians: Map<string, number>;
+    };
+
+/** The shop an import goes into: the shop lead's own. */
+async function importShop(principal: Principal) {
+  if (principal.scope.kind !== 'shop') throw forbidden('Jobs are imported by a shop’s own lead.');
+  const conn = await db();
+  const [shop] = await conn.select().from(shops).where(eq(shops.id, principal.scope.shopId));
+  if (!shop) throw forbidden('Your shop could not be found.');
+  return shop;
+}
+
+export const digestOf = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
+
+async function refuseDuplicate(shopId: number, digest: string, fileName: string) {
+  const conn = await db();
+  const [earlier] = await conn
+    .select({
+      id: importBatches.id,
+      fileName: importBatches.fileName,
+      importedCount: importBatches.importedCount,
+      completedAt: importBatches.completedAt,
+      by: users.name,
+    })
+    .from(importBatches)
+    .leftJoin(users, eq(users.id, importBatches.createdById))
+    .where(
+      and(
+        eq(importBatches.shopId, shopId),
+        eq(importBatches.kind, 'jobs'),
+        eq(importBatches.fileDigest, digest),
+        eq(importBatches.status, 'imported'),
+      ),
+    )
+    .limit(1);
+  if (!earlier) return;
+  const when = earlier.completedAt ? earlier.completedAt.toISOString().slice(0, 10) : 'earlier';
+  throw conflict(
+    `This file was already imported on ${when}${earlier.by ? ` by ${earlier.by}` : ''} ` +
+      `(import #${earlier.id}, “${earlier.fileName}”, ${earlier.importedCount} jobs). ` +
+      `Nothing was imported again${fileName !== earlier.fileName ? ` from “${fileName}”` : ''}.`,
+  );
+}
+
+/**
+ * Reads and checks the whole file before anything is written: the CSV, the column mapping, every
+ * row (lib/validators/imports.ts), then what only the database knows (job numbers already in the
+ * shop, technicians' e-mails). A file that fails is recorded as a failed import with its errors.
+ */
+export async function prepareImport(
+  principal: Principal,
+  file: ImportFile,
+  now = new Date(),
+): Promise<PreparedImport> {
+  const shop = await importShop(principal);
+  const digest = digestOf(file.bytes);
+  await refuseDuplicate(shop.id, digest, file.fileName);
+
+  const text = new TextDecoder('utf-8').decode(file.bytes).replace(/^\uFEFF/, '');
+  const parsed = Papa.parse<Record<string, string>>(text, {
+    header: true,
+    skipEmptyLines: 'greedy',
+    transformHeader: (h) => h.trim(),
+  });
+  const headers = parsed.meta.fields ?? [];
+  const missing = Object.entries(file.mapping).filter(([, header]) => !headers.includes(header));
+  if (missing.length) {
+    throw badRequest(
+      'The column mapping names columns the file does not have.',
+      missing.map(([field, header]) => ({
+        field: `mapping.${field}`,
+        message: `The file has no column “${header}”`,
+      })),
+    );
+  }
+  if (parsed.data.length === 0) throw badRequest('The file has no rows under its headings.');
+  if (parsed.data.length > IMPORT_MAX_ROWS) {
+    throw badRequest(
+      `The file has ${parsed.data.length} rows; import at most ${IMPORT_MAX_ROWS} at a time.`,
+    );
+  }
+
+  const rows = parsed.data.map((record) => {
+    const row: Partial<Record<ImportField, string>> = {};
+    for (const key of IMPORT_FIELD_KEYS) {
+      const header = file.mapping[key];
+      if (header) row[key] = record[header] ?? '';
+    }
+    return row;
+  });
+  const { valid, errors } = validateImportRows(rows, {
+    timeZone: shop.timeZone,
+    now,
+    mapping: file.mapping,
+  });
+  for (const e of parsed.errors) {
+    if (e.row !== undefined) errors.push({ row: e.row + 2, message: csvProblem(e) });
+  }
+
+  // What only the database can tell.
+  const conn = await db();
+  const staff = await conn
+    .select({ id: users.id, email: users.email })
+    .from(users)
+    .where(and(eq(users.shopId, shop.id), eq(users.active, true)));
+  const technicians = new Map(staff.map((s) => [s.email, s.id]));
+  const existing = await conn
+    .select({ ref: jobs.externalRef })
+    .from(jobs)
+    .where(and(eq(jobs.shopId, shop.id), isNotNull(jobs.externalRef)));
+  const existingRefs = new Set(existing.map((r) => r.ref));
+  const column = (field: ImportField) => file.mapping[field] ?? field;
+  for (const row of valid) {
+    if (existingRefs.has(row.externalRef)) {
+      errors.push({
+        row: row.row,
+        column: column('external_ref'),
+        message: `Job ${row.externalRef} is already in Reelwright`,
+      });
+    }
+    if (row.technicianEmail && !technicians.has(row.technicianEmail)) {
+      errors.push({
+        row: row.row,
+        column: column('technician_email'),
+        message: `No one at ${shop.name} signs in as ${row.technicianEmail}`,
+      });
+    }
+  }
+
+  if (errors.length) {
+    errors.sort((a, b) => a.row - b.row);
+    const [batch] = await conn
+      .insert(importBatches)
+      .values({
+        shopId: shop.id,
+        fileName: file.fileName,
+        fileDigest: digest,
+        sizeBytes: file.bytes.length,
+        status: 'failed',
+        rowCount: rows.length,
+        errorCount: errors.length,
+        errors,
+        columnMap: invert(file.mapping),
+        createdById: principal.id,
+        completedAt: new Date(),
+      })
+      .returning({ id: importBatches.id });
+    return { ok: false, batchId: batch!.id, rowCount: rows.length, errors };
+  }
+  return { ok: true, shop, file, digest, rows: valid, technicians };
+}
+
+function csvProblem(e: Papa.ParseError): string {
+  if (e.code === 'TooFewFields' || e.code === 'TooManyFields')
+    return `This row has a different number of columns than the headings (${e.message})`;
+  return e.message;
+}
+
+const invert = (mapping: ColumnMapping) =>
+  Object.fromEntries(Object.entries(mapping).map(([field, header]) => [header, field]));
+
+const customerKey = (c: ParsedImportRow['customer']) =>
+  c.email
+    ? `e:${c.email}`
+    : c.phone
+      ? `p:${c.phone.replace(/\D/g, '')}`
+      : `n:${c.name.toLowerCase()}`;
+const reelKey = (
+  customerId: number,
+  r: Pick<ParsedImportRow['reel'], 'kind' | 'maker' | 'model'> & { size: string | null },
+) =>
+  `${customerId}|${r.kind}|${r.maker.toLowerCase()}|${r.model.toLowerCase()}|${(r.size ?? '').toLowerCase()}`;
+
+/**
+ * Writes a prepared import in ONE transaction: customers and reels found or created, the jobs with
+ * their timeline, bench time and business-time turnaround, and the batch. Any failure rolls all of
+ * it back. Rows go in with multi-row statements, thousands at a time.
+ */
+export async function runImport(
+  principal: Principal,
+  prepared: Extract<PreparedImport, { ok: true }>,
+  onProgress: (p: ImportProgress) => void = () => {},
+): Promise<ImportSummary> {
+  const started = performance.now();
+  const { shop, rows, file } = prepared;
+  const calendar = shopCalendar(shop);
+  const conn = await db();
+  const total = rows.length;
+  const note = `Imported from ${file.fileName}`;
+
+  try {
+    return await conn.transaction(async (tx) => {
+      const [batch] = await tx
+        .insert(importBatches)
+        .values({
+          shopId: shop.id,
+          fileName: file.fileName,
+          fileDigest: prepared.digest,
+          sizeBytes: file.bytes.length,
+          status: 'importing',
+          rowCount: total,
+          columnMap: invert(file.mapping),
+          createdById: principal.id,
+        })
+        .returning({ id: importBatches.id });
+      const batchId = batch!.id;
+
+      // Customers: the shop's own, matched by e-mail, else phone, else name.
+      const known = await tx
+        .select({
+          id: customers.id,
+          name: customers.name,
+          email: customers.email,
+          phone: customers.phone,
+        })
+        .from(customers)
+        .where(eq(customers.shopId, shop.id));
+      const customerIds = new Map<string, number>();
+      for (const c of known) {
+        customerIds.set(customerKey({ ...c, reminderConsent: false }), c.id);
+        if (c.email) customerIds.set(`e:${c.email.toLowerCase()}`, c.id);
+      }
+      const pendingCustomers = new Map<string, ParsedImportRow['customer']>();
+      for (const row of rows) {
+        const key = customerKey(row.customer);
+        if (!customerIds.has(key) && !pendingCustomers.has(key))
+          pendingCustomers.set(key, row.customer);
+      }
+      const createdCustomers = await bulkInsert<{
+        id: number;
+        name: string;
+        email: string | null;
+        phone: string | null;
+      }>(
+        tx,
+        customers,
+        [...pendingCustomers.values()].map((c) => ({ shopId: shop.id, ...c })),
+        { returning: 'id, name, email, phone' },
+      );
+      for (const c of createdCustomers) {
+        customerIds.set(customerKey({ ...c, reminderConsent: false }), Number(c.id));
+      }
+      const customerOf = (row: ParsedImportRow) => customerIds.get(customerKey(row.customer))!;
+
+      // Reels: the customer's own, matched by kind, maker, model and size. A reel's last service
+      // is the latest ready date among its jobs, in the shop's calendar.
+      const knownReels = await tx
+        .select({
+          id: reels.id,
+          customerId: reels.customerId,
+          kind: reels.kind,
+          maker: reels.maker,
+          model: reels.model,
+          size: reels.size,
+          lastServicedOn: reels.lastServicedOn,
+        })
+        .from(reels)
+        .innerJoin(customers, eq(customers.id, reels.customerId))
+        .where(eq(customers.shopId, shop.id));
+      const reelIds = new Map(knownReels.map((r) => [reelKey(r.customerId, r), r.id]));
+      const servicedOn = new Map<string, string>();
+      const pendingReels = new Map<string, { customerId: number; reel: ParsedImportRow['reel'] }>();
+      for (const row of rows) {
+        const customerId = customerOf(row);
+        const key = reelKey(customerId, row.reel);
+        if (!reelIds.has(key) && !pendingReels.has(key))
+          pendingReels.set(key, { customerId, reel: row.reel });
+        if (row.readyAt) {
+          const day = localDate(row.readyAt, shop.timeZone);
+          const before = servicedOn.get(key);
+          if (!before || before < day) servicedOn.set(key, day);
+        }
+      }
+      const createdReels = await bulkInsert<{
+        id: number;
+        customer_id: number;
+        kind: ParsedImportRow['reel']['kind'];
+        maker: string;
+        model: string;
+        size: string | null;
+      }>(
+        tx,
+        reels,
+        [...pendingReels].map(([key, { customerId, reel }]) => ({
+          customerId,
+          ...reel,
+          lastServicedOn: servicedOn.get(key) ?? null,
+        })),
+        { returning: 'id, customer_id, kind, maker, model, size' },
+      );
+      for (const r of createdReels) {
+        reelIds.set(reelKey(Number(r.customer_id), r), Number(r.id));
+      }
+      // Existing reels serviced later than their record says.
+      const updates = knownReels
+        .map((r) => [r.id, servicedOn.get(reelKey(r.customerId, r)), r.lastServicedOn] as const)
+        .filter((u): u is [number, string, string | null] => !!u[1] && (!u[2] || u[2] < u[1]));
+      if (updates.length) {
+        await tx.execute(
+          sql`update ${reels} set last_serviced_on = v.day
+              from unnest(${sql.param(updates.map(([id]) => String(id)))}::text[]::integer[],
+                          ${sql.param(updates.map(([, day]) => day))}::text[]::date[]) as v(id, day)
+              where ${reels.id} = v.id`,
+        );
+      }
+
+      // Standards: each job is tied to the version published when it was checked in.
+      const standards = await tx
+        .select({ id: serviceStandards.id, publishedAt: serviceStandards.publishedAt })
+        .from(serviceStandards)
+        .where(isNotNull(serviceStandards.publishedAt))
+        .orderBy(desc(serviceStandards.publishedAt));
+      const standardAt = (at: Date) =>
+        standards.find((st) => st.publishedAt!.getTime() <= at.getTime())?.id ?? null;
+
+      const technicianOf = (row: ParsedImportRow) =>
+        row.technicianEmail ? (prepared.technicians.get(row.technicianEmail) ?? null) : null;
+      const timelines = rows.map(timeline);
+      const jobRows = rows.map((row, i) => {
+        const customerId = customerOf(row);
+        const turnaround =
+          row.readyAt &&
+          jobTurnaround(
+            {
+              checkedInAt: row.checkedInAt,
+              readyAt: row.readyAt,
+              waitingSpans: row.partsWait ? [row.partsWait] : [],
+            },
+            calendar,
+          );
+        return {
+          shopId: shop.id,
+          customerId,
+          reelId: reelIds.get(reelKey(customerId, row.reel))!,
+          serviceType: row.serviceType,
+          state: row.state,
+          stateChangedAt: timelines[i]!.at(-1)!.at,
+          technicianId: technicianOf(row),
+          serviceStandardId: standardAt(row.checkedInAt),
+          complaint: row.complaint,
+          findings: row.findings,
+          checkedInAt: row.checkedInAt,
+          promisedAt: row.promisedAt,
+          readyAt: row.readyAt,
+          collectedAt: row.collectedAt,
+          labourCents: row.labourCents,
+          partsCents: row.partsCents,
+          discountCents: row.discountCents,
+          customerTurnaroundMinutes: turnaround ? turnaround.customerMinutes : null,
+          benchTurnaroundMinutes: turnaround ? turnaround.benchMinutes : null,
+          waitingPartsMinutes: turnaround ? turnaround.waitingMinutes : null,
+          benchMinutes: row.benchMinutes,
+          importBatchId: batchId,
+          externalRef: row.externalRef,
+        } satisfies typeof jobs.$inferInsert;
+      });
+      const inserted = await bulkInsert<{ id: number; external_ref: string }>(tx, jobs, jobRows, {
+        chunk: 2500,
+        returning: 'id, external_ref',
+        onChunk: (done) => onProgress({ phase: 'storing', done, total }),
+      });
+      const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
+
+      const eventRows: NewJobEvent[] = [];
+      const sessionRows: (typeof benchSessions.$inferInsert)[] = [];
+      rows.forEach((row, i) => {
+        const jobId = jobIdOf.get(row.externalRef)!;
+        for (const e of timelines[i]!) eventRows.push({ jobId, ...e, userId: null, note });
+        const technicianId = technicianOf(row);
+        if (row.benchMinutes !== null && technicianId !== null) {
+          sessionRows.push({ jobId, technicianId, minutes: row.benchMinutes, note });
+        }
+      });
+      await bulkInsert(tx, jobEvents, eventRows, { chunk: 10_000 });
+      await bulkInsert(tx, benchSessions, sessionRows, { chunk: 10_000 });
+
+      const seconds = (performance.now() - started) / 1000;
+      await tx
+        .update(importBatches)
+        .set({ status: 'imported', importedCount: total, completedAt: new Date() })
+        .where(eq(importBatches.id, batchId));
+      await tx.insert(activityLog).values({
+        userId: principal.id,
+        action: 'jobs.import',
+        entityType: 'import_batch',
+        entityId: batchId,
+        shopId: shop.id,
+        after: {
+          fileName: file.fileName,
+          jobs: total,
+          customersCreated: createdCustomers.length,
+          reelsCreated: createdReels.length,
+        },
+      });
+      return {
+        batchId,
+        fileName: file.fileName,
+        imported: total,
+        customersCreated: createdCustomers.length,
+        reelsCreated: createdReels.length,
+        seconds: Math.round(seconds * 100) / 100,
+      };
+    });
+  } catch (error) {
+    // Another import of the same file finished first: the partial unique index says so.
+    if (pgError(error)?.code === '23505') {
+      await refuseDuplicate(shop.id, prepared.digest, file.fileName);
+      throw conflict(
+        'Some of these jobs were imported meanwhile; nothing was imported. Try again.',
+      );
+    }
+    throw error;
+  }
+}
+
+/** The state changes an imported job went through, as far as the file tells them. */
+function timeline(
+  row: ParsedImportRow,
+): { fromState: JobState | null; toState: JobState; at: Date }[] {
+  const events: { fromState: JobState | null; toState: JobState; at: Date }[] = [];
+  const to = (state: JobState, at: Date) =>
+    events.push({ fromState: events.at(-1)?.toState ?? null, toState: state, at });
+  to('checked_in', row.checkedInAt);
+  if (row.state === 'checked_in') return events;
+  // When work started is not in the file: the bench begins at check-in.
+  to('on_bench', row.checkedInAt);
+  if (row.partsWait) {
+    to('waiting_parts', row.partsWait.from);
+    if (row.partsWait.to) to('on_bench', row.partsWait.to);
+  } else if (row.state === 'waiting_parts') {
+    to('waiting_parts', row.checkedInAt);
+  }
+  if (row.readyAt) to('ready', row.readyAt);
+  if (row.collectedAt) to('collected', row.collectedAt);
+  return events;
+}
