@@ -88,18 +88,19 @@ describe('PGlite folder lock', () => {
     lock.release();
   });
 
-  it('is released on close, so the folder opens again in this or another process', async () => {
+  it('is released on close and when its holder exits', async () => {
     const dir = tempDataDir();
-    const first = await openDb({ dataDir: dir });
-    expect(existsSync(path.join(dir, LOCK_FILE_NAME))).toBe(true);
+    const handle = await openDb({ dataDir: dir });
+    const file = path.join(dir, LOCK_FILE_NAME);
+    expect(existsSync(file)).toBe(true);
+    // A second opener in the same process is refused too: two PGlite instances would still clash.
     await expect(openDb({ dataDir: dir })).rejects.toThrow(`in use by process ${process.pid}`);
-    await first.close();
-    expect(existsSync(path.join(dir, LOCK_FILE_NAME))).toBe(false);
+    await handle.close();
+    expect(existsSync(file)).toBe(false);
 
-    const second = await openDb({ dataDir: dir });
-    await second.close();
     // A holder that exits normally removes its lock on the way out.
     await exited(await holdLock(dir, 'exit'));
-    expect(existsSync(path.join(dir, LOCK_FILE_NAME))).toBe(false);
+    expect(existsSync(file)).toBe(false);
+    lockDataDir(dir).release();
   });
 });
