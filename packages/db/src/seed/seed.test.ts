@@ -69,8 +69,8 @@ describe(`the demo network (${TARGET})`, () => {
   });
   afterAll(() => handle?.close());
 
-  it('is seeded well within a minute, and only into an empty database', async () => {
-    expect(seconds).toBeLessThan(45);
+  it('is seeded within a minute, and only into an empty database', async () => {
+    expect(seconds).toBeLessThan(60);
     expect(await isEmpty(db)).toBe(false);
     await expect(seedDemo(db)).rejects.toThrow(/only fills an empty one/);
   });
