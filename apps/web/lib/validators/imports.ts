@@ -414,6 +414,10 @@ export interface ValidateOptions {
   now: Date;
   /** Field → the file's heading, to name columns the way the user sees them. */
   mapping: Partial<Record<ImportField, string>>;
+  /** When checking a file in slices: how many rows came before this slice… */
+  rowOffset?: number;
+  /** …and the job numbers seen so far (number → row), shared between slices. */
+  seenRefs?: Map<string, number>;
 }
 
 /**
@@ -427,10 +431,11 @@ export function validateImportRows(
   const valid: ParsedImportRow[] = [];
   const errors: ImportRowError[] = [];
   const columnOf = (field: ImportField) => options.mapping[field] ?? field;
-  const seenRefs = new Map<string, number>();
+  const seenRefs = options.seenRefs ?? new Map<string, number>();
+  const offset = options.rowOffset ?? 0;
 
   rows.forEach((raw, index) => {
-    const row = index + 2;
+    const row = offset + index + 2;
     const before = errors.length;
     const fail = (field: ImportField, message: string) =>
       errors.push({ row, column: columnOf(field), message });
