@@ -11,7 +11,7 @@ CREATE TYPE "public"."email_kind" AS ENUM('job_ready', 'comeback_review', 'audit
 CREATE TYPE "public"."email_status" AS ENUM('pending', 'sent', 'failed');--> statement-breakpoint
 CREATE TYPE "public"."import_kind" AS ENUM('jobs');--> statement-breakpoint
 CREATE TYPE "public"."import_status" AS ENUM('validating', 'importing', 'imported', 'failed');--> statement-breakpoint
-CREATE TYPE "public"."inspection_level" AS ENUM('I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4');--> statement-breakpoint
+CREATE TYPE "public"."inspection_level" AS ENUM('I', 'II', 'III', 'S1', 'S2', 'S3', 'S4');--> statement-breakpoint
 CREATE TYPE "public"."inspection_severity" AS ENUM('normal', 'tightened', 'reduced', 'discontinued');--> statement-breakpoint
 CREATE TYPE "public"."job_state" AS ENUM('checked_in', 'on_bench', 'waiting_parts', 'ready', 'collected');--> statement-breakpoint
 CREATE TYPE "public"."lot_decision" AS ENUM('accepted', 'rejected');--> statement-breakpoint

@@ -104,10 +104,10 @@ export const inspectionLevel = pgEnum('inspection_level', [
   'I',
   'II',
   'III',
-  'S-1',
-  'S-2',
-  'S-3',
-  'S-4',
+  'S1',
+  'S2',
+  'S3',
+  'S4',
 ]);
 export type InspectionLevel = (typeof inspectionLevel.enumValues)[number];
 
