@@ -35,7 +35,7 @@ export default defineConfig({
     { name: 'setup', testMatch: /.*\.setup\.ts/, use: { ...devices['Desktop Chrome'] } },
     {
       name: 'chromium',
-      dependsOn: ['setup'],
+      dependencies: ['setup'],
       use: { ...devices['Desktop Chrome'], viewport: { width: 1280, height: 900 } },
     },
   ],
