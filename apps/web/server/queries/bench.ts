@@ -88,8 +88,11 @@ function listConditions(principal: Principal, q: JobListQuery, now: Date): (SQL 
     conditions.push(inArray(jobs.state, [...OPEN_STATES]));
     conditions.push(lt(jobs.stateChangedAt, new Date(now.getTime() - q.waitingDays * DAY)));
   }
-  if (q.q) {
-    const text = q.q.replace(/^#/, '');
+  if (q.q && /^#\d{1,9}$/.test(q.q)) {
+    // "#123" asks for a job number and nothing else.
+    conditions.push(eq(jobs.id, Number(q.q.slice(1))));
+  } else if (q.q) {
+    const text = q.q;
     const like = `%${escapeLike(text)}%`;
     const digits = text.replace(/\D/g, '');
     const matches: SQL[] = [

@@ -240,7 +240,7 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
               type="search"
               value={text}
               onChange={(e) => setText(e.target.value)}
-              placeholder="Customer, phone, e-mail, reel or #job"
+              placeholder="Name, phone, e-mail, reel or #job"
               className={fieldClass}
             />
           </div>
@@ -427,7 +427,7 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
                         <button
                           type="button"
                           onClick={() => sortBy(header.column.id)}
-                          className={`inline-flex min-h-11 items-center gap-1 rounded px-1 -mx-1 hover:bg-sand-200 ${numeric ? 'flex-row-reverse' : ''}`}
+                          className="-mx-1 inline-flex min-h-11 items-center gap-1 rounded px-1 whitespace-nowrap hover:bg-sand-200"
                         >
                           {label}
                           <span aria-hidden="true" className="text-slate-500">

@@ -1,6 +1,7 @@
 'use client';
 
 import { useQueryClient } from '@tanstack/react-query';
+import { useRef } from 'react';
 import { Panel } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
 import { jobKeys, sendJson, type JobDetailJson } from '~/lib/queries/jobs';
@@ -21,13 +22,16 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
   const queryClient = useQueryClient();
   const { checklist } = job;
   const steps = checklist.groups.flatMap((g) => g.steps);
+  const latest = useRef(0);
   const save = useJobMutation(
     job.id,
-    (stepIds: number[]) =>
+    ({ stepIds }: { stepIds: number[]; seq: number }) =>
       sendJson<JobDetailJson>('PUT', `/api/jobs/${job.id}/checklist`, { stepIds }),
     {
       scope: 'checklist',
-      onMutate: (stepIds) => {
+      // Quick ticks queue up; only the answer to the last one replaces what is on screen.
+      isLatest: ({ seq }) => seq === latest.current,
+      onMutate: ({ stepIds }) => {
         // Show the tick straight away; the answer from the server replaces it.
         const ticked = new Set(stepIds);
         queryClient.setQueryData<JobDetailJson>(jobKeys.detail(job.id), (old) =>
@@ -49,7 +53,8 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
   );
   const toggle = (stepId: number, on: boolean) => {
     const ids = steps.filter((s) => (s.id === stepId ? on : s.ticked)).map((s) => s.id);
-    save.mutate(ids);
+    latest.current += 1;
+    save.mutate({ stepIds: ids, seq: latest.current });
   };
   const ticked = steps.filter((s) => s.ticked).length;
   const requiredLeft = steps.filter((s) => s.required && !s.ticked).length;

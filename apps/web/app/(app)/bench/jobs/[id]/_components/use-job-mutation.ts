@@ -11,14 +11,20 @@ import { jobKeys, type JobDetailJson } from '~/lib/queries/jobs';
 export function useJobMutation<TVariables>(
   jobId: number,
   request: (variables: TVariables) => Promise<JobDetailJson>,
-  options: { scope?: string; onMutate?: (variables: TVariables) => void } = {},
+  options: {
+    scope?: string;
+    onMutate?: (variables: TVariables) => void;
+    /** Whether this answer is still the one to show (false: a later write is on its way). */
+    isLatest?: (variables: TVariables) => boolean;
+  } = {},
 ) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: request,
     scope: options.scope ? { id: `job-${jobId}-${options.scope}` } : undefined,
     onMutate: options.onMutate,
-    onSuccess: (job) => {
+    onSuccess: (job, variables) => {
+      if (options.isLatest && !options.isLatest(variables)) return;
       queryClient.setQueryData(jobKeys.detail(jobId), job);
       void queryClient.invalidateQueries({ queryKey: jobKeys.lists });
     },
