@@ -47,7 +47,12 @@ export default tseslint.config(
   {
     // Environment variables are validated once, in apps/web/env.ts.
     files: ['apps/web/**/*.{ts,tsx}'],
-    ignores: ['apps/web/env.ts', 'apps/web/instrumentation.ts', 'apps/web/scripts/**'],
+    ignores: [
+      'apps/web/env.ts',
+      'apps/web/instrumentation.ts',
+      'apps/web/next.config.ts',
+      'apps/web/scripts/**',
+    ],
     rules: {
       'no-restricted-properties': [
         'error',
