@@ -23,7 +23,12 @@ export function ChartFigure(props: {
         {props.summary}
       </p>
       {props.legend && <div className="mt-2">{props.legend}</div>}
-      <div role="img" aria-labelledby={`${props.id}-title`} aria-describedby={`${props.id}-summary`} className="mt-3">
+      <div
+        role="img"
+        aria-labelledby={`${props.id}-title`}
+        aria-describedby={`${props.id}-summary`}
+        className="mt-3"
+      >
         {props.children}
       </div>
       <details className="mt-2 rounded-md border border-sand-200 bg-sand-50 px-3 py-2">
@@ -37,7 +42,11 @@ export function ChartFigure(props: {
 }
 
 /** A legend entry: the mark drawn in the chart and its words. */
-export function LegendItem(props: { colour: string; mark?: 'dot' | 'line' | 'dash' | 'triangle' | 'diamond'; children: ReactNode }) {
+export function LegendItem(props: {
+  colour: string;
+  mark?: 'dot' | 'line' | 'dash' | 'triangle' | 'diamond';
+  children: ReactNode;
+}) {
   const mark = props.mark ?? 'dot';
   return (
     <span className="inline-flex items-center gap-1.5 text-sm text-slate-700">
@@ -45,9 +54,19 @@ export function LegendItem(props: { colour: string; mark?: 'dot' | 'line' | 'das
         {mark === 'dot' && <circle cx="9" cy="6" r="4.5" fill={props.colour} />}
         {mark === 'triangle' && <path d="M9 1 L14.5 11 L3.5 11 Z" fill={props.colour} />}
         {mark === 'diamond' && <path d="M9 0.5 L15 6 L9 11.5 L3 6 Z" fill={props.colour} />}
-        {mark === 'line' && <line x1="0" y1="6" x2="18" y2="6" stroke={props.colour} strokeWidth="2.5" />}
+        {mark === 'line' && (
+          <line x1="0" y1="6" x2="18" y2="6" stroke={props.colour} strokeWidth="2.5" />
+        )}
         {mark === 'dash' && (
-          <line x1="0" y1="6" x2="18" y2="6" stroke={props.colour} strokeWidth="2" strokeDasharray="4 3" />
+          <line
+            x1="0"
+            y1="6"
+            x2="18"
+            y2="6"
+            stroke={props.colour}
+            strokeWidth="2"
+            strokeDasharray="4 3"
+          />
         )}
       </svg>
       {props.children}
@@ -67,7 +86,11 @@ export function FigureTable(props: {
       <thead>
         <tr className="border-b border-sand-300 text-slate-600">
           {props.columns.map((c, i) => (
-            <th key={c.label} scope="col" className={`py-1.5 pr-3 font-medium ${c.numeric ? 'num' : ''} ${i === 0 ? '' : ''}`}>
+            <th
+              key={c.label}
+              scope="col"
+              className={`py-1.5 pr-3 font-medium ${c.numeric ? 'num' : ''} ${i === 0 ? '' : ''}`}
+            >
               {c.label}
             </th>
           ))}

@@ -21,7 +21,10 @@ export interface FunnelPoint {
   band: FairnessBand;
 }
 
-const BAND_STYLE: Record<FairnessBand, { colour: string; shape: 'circle' | 'triangle' | 'diamond' }> = {
+const BAND_STYLE: Record<
+  FairnessBand,
+  { colour: string; shape: 'circle' | 'triangle' | 'diamond' }
+> = {
   'in line': { colour: '#475569', shape: 'circle' },
   'on watch': { colour: '#d97706', shape: 'triangle' },
   'out of line': { colour: '#a03c28', shape: 'diamond' },
@@ -32,16 +35,33 @@ const pct = (x: number) => `${(x * 100).toFixed(x < 0.1 ? 1 : 0)}%`;
 
 /** Limit curves around the network rate at volumes spread over [lo, hi], by @reelwright/metrics. */
 export function funnelCurves(networkRate: number, lo: number, hi: number, steps = 60) {
-  const out: { n: number; network: number; lower95: number; upper95: number; lower998: number; upper998: number }[] = [];
+  const out: {
+    n: number;
+    network: number;
+    lower95: number;
+    upper95: number;
+    lower998: number;
+    upper998: number;
+  }[] = [];
   const seen = new Set<number>();
   for (let k = 0; k <= steps; k++) {
     // Spread on a square-root scale: the funnel changes fastest at small volumes.
-    const n = Math.max(1, Math.round((Math.sqrt(lo) + ((Math.sqrt(hi) - Math.sqrt(lo)) * k) / steps) ** 2));
+    const n = Math.max(
+      1,
+      Math.round((Math.sqrt(lo) + ((Math.sqrt(hi) - Math.sqrt(lo)) * k) / steps) ** 2),
+    );
     if (seen.has(n)) continue;
     seen.add(n);
     const l95 = funnelLimits(n, networkRate, 0.95);
     const l998 = funnelLimits(n, networkRate, 0.998);
-    out.push({ n, network: networkRate, lower95: l95.lower, upper95: l95.upper, lower998: l998.lower, upper998: l998.upper });
+    out.push({
+      n,
+      network: networkRate,
+      lower95: l95.lower,
+      upper95: l95.upper,
+      lower998: l998.lower,
+      upper998: l998.upper,
+    });
   }
   return out;
 }
@@ -62,7 +82,8 @@ export function FunnelChart(props: {
   const curves = funnelCurves(props.networkRate, lo, hi);
   const top = Math.min(
     1,
-    Math.max(...props.points.map((p) => p.rate), curves[0]?.upper998 ?? 0, props.networkRate * 2) * 1.1,
+    Math.max(...props.points.map((p) => p.rate), curves[0]?.upper998 ?? 0, props.networkRate * 2) *
+      1.1,
   );
   const byBand = (band: FairnessBand) =>
     props.points.filter((p) => p.band === band).map((p) => ({ ...p, n: p.trials }));
@@ -76,7 +97,13 @@ export function FunnelChart(props: {
             type="number"
             domain={[lo, hi]}
             tick={{ fill: '#475569', fontSize: 12 }}
-            label={{ value: props.xLabel, position: 'insideBottom', offset: -16, fill: '#334155', fontSize: 13 }}
+            label={{
+              value: props.xLabel,
+              position: 'insideBottom',
+              offset: -16,
+              fill: '#334155',
+              fontSize: 13,
+            }}
           />
           <YAxis
             type="number"
@@ -90,11 +117,48 @@ export function FunnelChart(props: {
             formatter={(value: number, name: string) => [pct(Number(value)), name]}
             labelFormatter={(n: number) => `Volume ${n}`}
           />
-          <Line dataKey="upper998" name="99.8% upper limit" stroke={FUNNEL_COLOURS.limit998} strokeWidth={1.5} dot={false} isAnimationActive={false} />
-          <Line dataKey="lower998" name="99.8% lower limit" stroke={FUNNEL_COLOURS.limit998} strokeWidth={1.5} dot={false} isAnimationActive={false} />
-          <Line dataKey="upper95" name="95% upper limit" stroke={FUNNEL_COLOURS.limit95} strokeWidth={1.5} strokeDasharray="5 4" dot={false} isAnimationActive={false} />
-          <Line dataKey="lower95" name="95% lower limit" stroke={FUNNEL_COLOURS.limit95} strokeWidth={1.5} strokeDasharray="5 4" dot={false} isAnimationActive={false} />
-          <Line dataKey="network" name="Network rate" stroke={FUNNEL_COLOURS.network} strokeWidth={2} dot={false} isAnimationActive={false} />
+          <Line
+            dataKey="upper998"
+            name="99.8% upper limit"
+            stroke={FUNNEL_COLOURS.limit998}
+            strokeWidth={1.5}
+            dot={false}
+            isAnimationActive={false}
+          />
+          <Line
+            dataKey="lower998"
+            name="99.8% lower limit"
+            stroke={FUNNEL_COLOURS.limit998}
+            strokeWidth={1.5}
+            dot={false}
+            isAnimationActive={false}
+          />
+          <Line
+            dataKey="upper95"
+            name="95% upper limit"
+            stroke={FUNNEL_COLOURS.limit95}
+            strokeWidth={1.5}
+            strokeDasharray="5 4"
+            dot={false}
+            isAnimationActive={false}
+          />
+          <Line
+            dataKey="lower95"
+            name="95% lower limit"
+            stroke={FUNNEL_COLOURS.limit95}
+            strokeWidth={1.5}
+            strokeDasharray="5 4"
+            dot={false}
+            isAnimationActive={false}
+          />
+          <Line
+            dataKey="network"
+            name="Network rate"
+            stroke={FUNNEL_COLOURS.network}
+            strokeWidth={2}
+            dot={false}
+            isAnimationActive={false}
+          />
           {(Object.keys(BAND_STYLE) as FairnessBand[]).map((band) => (
             <Scatter
               key={band}
@@ -105,7 +169,12 @@ export function FunnelChart(props: {
               shape={BAND_STYLE[band].shape}
               isAnimationActive={false}
             >
-              <LabelList dataKey="label" position="right" offset={8} style={{ fill: '#0f172a', fontSize: 12, fontWeight: 500 }} />
+              <LabelList
+                dataKey="label"
+                position="right"
+                offset={8}
+                style={{ fill: '#0f172a', fontSize: 12, fontWeight: 500 }}
+              />
             </Scatter>
           ))}
         </ComposedChart>

@@ -31,17 +31,26 @@ export function HistogramChart(props: {
   unit: string;
   height?: number;
 }) {
-  const width = props.bins[0] ? (props.bins[0].to ?? props.bins[0].from + 1) - props.bins[0].from : 1;
+  const width = props.bins[0]
+    ? (props.bins[0].to ?? props.bins[0].from + 1) - props.bins[0].from
+    : 1;
   const data = props.bins.map((b) => ({
     ...b,
     mid: b.from + width / 2,
-    range: b.to === null ? `${fmt(b.from)} ${props.unit} or more` : `${fmt(b.from)}–${fmt(b.to)} ${props.unit}`,
+    range:
+      b.to === null
+        ? `${fmt(b.from)} ${props.unit} or more`
+        : `${fmt(b.from)}–${fmt(b.to)} ${props.unit}`,
   }));
   const end = (props.bins.at(-1)?.from ?? 0) + width;
   return (
     <div style={{ height: props.height ?? 240 }}>
       <ResponsiveContainer width="100%" height="100%">
-        <BarChart data={data} margin={{ top: 24, right: 16, bottom: 16, left: 0 }} barCategoryGap={1}>
+        <BarChart
+          data={data}
+          margin={{ top: 24, right: 16, bottom: 16, left: 0 }}
+          barCategoryGap={1}
+        >
           <CartesianGrid stroke="#e9e0cd" strokeDasharray="3 3" vertical={false} />
           <XAxis
             dataKey="mid"
@@ -50,12 +59,20 @@ export function HistogramChart(props: {
             ticks={data.filter((_, i) => i % 2 === 0).map((d) => d.from)}
             tickFormatter={(v: number) => fmt(v)}
             tick={{ fill: '#475569', fontSize: 11 }}
-            label={{ value: props.unit, position: 'insideBottomRight', offset: -8, fill: '#334155', fontSize: 12 }}
+            label={{
+              value: props.unit,
+              position: 'insideBottomRight',
+              offset: -8,
+              fill: '#334155',
+              fontSize: 12,
+            }}
           />
           <YAxis allowDecimals={false} tick={{ fill: '#475569', fontSize: 11 }} width={36} />
           <Tooltip
             formatter={(value: number) => [value, 'Jobs']}
-            labelFormatter={(_: unknown, payload: { payload?: { range?: string } }[]) => payload?.[0]?.payload?.range ?? ''}
+            labelFormatter={(_: unknown, payload: { payload?: { range?: string } }[]) =>
+              payload?.[0]?.payload?.range ?? ''
+            }
           />
           <Bar dataKey="count" name="Jobs" fill={HISTOGRAM_COLOURS.bar} isAnimationActive={false} />
           {props.median !== null && (
@@ -63,7 +80,12 @@ export function HistogramChart(props: {
               x={Math.min(props.median, end)}
               stroke={HISTOGRAM_COLOURS.median}
               strokeWidth={2}
-              label={{ value: `Median ${fmt(props.median)}`, position: 'top', fill: HISTOGRAM_COLOURS.median, fontSize: 12 }}
+              label={{
+                value: `Median ${fmt(props.median)}`,
+                position: 'top',
+                fill: HISTOGRAM_COLOURS.median,
+                fontSize: 12,
+              }}
             />
           )}
           {props.p90 !== null && (
@@ -72,7 +94,12 @@ export function HistogramChart(props: {
               stroke={HISTOGRAM_COLOURS.p90}
               strokeWidth={2}
               strokeDasharray="5 3"
-              label={{ value: `p90 ${fmt(props.p90)}`, position: 'top', fill: HISTOGRAM_COLOURS.p90, fontSize: 12 }}
+              label={{
+                value: `p90 ${fmt(props.p90)}`,
+                position: 'top',
+                fill: HISTOGRAM_COLOURS.p90,
+                fontSize: 12,
+              }}
             />
           )}
         </BarChart>

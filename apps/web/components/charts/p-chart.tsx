@@ -18,7 +18,12 @@ export interface PChartDatum {
   signal: 'above' | 'below' | null;
 }
 
-export const P_CHART_COLOURS = { rate: '#1f514a', centre: '#475569', limit: '#853223', signal: '#a03c28' };
+export const P_CHART_COLOURS = {
+  rate: '#1f514a',
+  centre: '#475569',
+  limit: '#853223',
+  signal: '#a03c28',
+};
 
 const pct = (x: number) => `${(x * 100).toFixed(0)}%`;
 
@@ -48,14 +53,49 @@ export function PChart(props: {
             tick={{ fill: '#475569', fontSize: 11 }}
             interval="preserveStartEnd"
           />
-          <YAxis domain={[0, top]} tickFormatter={pct} tick={{ fill: '#475569', fontSize: 11 }} width={40} />
+          <YAxis
+            domain={[0, top]}
+            tickFormatter={pct}
+            tick={{ fill: '#475569', fontSize: 11 }}
+            width={40}
+          />
           <Tooltip
-            formatter={(value: number, name: string) => [`${(Number(value) * 100).toFixed(1)}%`, name]}
+            formatter={(value: number, name: string) => [
+              `${(Number(value) * 100).toFixed(1)}%`,
+              name,
+            ]}
             labelFormatter={(l: string) => props.formatLabel(l)}
           />
-          <Line dataKey="upper" name="Upper limit" type="step" stroke={P_CHART_COLOURS.limit} strokeWidth={1.25} strokeDasharray="4 3" dot={false} connectNulls={false} isAnimationActive={false} />
-          <Line dataKey="lower" name="Lower limit" type="step" stroke={P_CHART_COLOURS.limit} strokeWidth={1.25} strokeDasharray="4 3" dot={false} connectNulls={false} isAnimationActive={false} />
-          <Line dataKey="center" name="Centre line" stroke={P_CHART_COLOURS.centre} strokeWidth={1.5} dot={false} isAnimationActive={false} />
+          <Line
+            dataKey="upper"
+            name="Upper limit"
+            type="step"
+            stroke={P_CHART_COLOURS.limit}
+            strokeWidth={1.25}
+            strokeDasharray="4 3"
+            dot={false}
+            connectNulls={false}
+            isAnimationActive={false}
+          />
+          <Line
+            dataKey="lower"
+            name="Lower limit"
+            type="step"
+            stroke={P_CHART_COLOURS.limit}
+            strokeWidth={1.25}
+            strokeDasharray="4 3"
+            dot={false}
+            connectNulls={false}
+            isAnimationActive={false}
+          />
+          <Line
+            dataKey="center"
+            name="Centre line"
+            stroke={P_CHART_COLOURS.centre}
+            strokeWidth={1.5}
+            dot={false}
+            isAnimationActive={false}
+          />
           <Line
             dataKey="rate"
             name="Comeback rate"
@@ -68,7 +108,13 @@ export function PChart(props: {
               if (p.cx == null || p.cy == null || p.payload?.rate == null) return <g key={key} />;
               if (p.payload.signal) {
                 const { cx, cy } = p;
-                return <path key={key} d={`M${cx} ${cy - 6} L${cx + 6} ${cy} L${cx} ${cy + 6} L${cx - 6} ${cy} Z`} fill={P_CHART_COLOURS.signal} />;
+                return (
+                  <path
+                    key={key}
+                    d={`M${cx} ${cy - 6} L${cx + 6} ${cy} L${cx} ${cy + 6} L${cx - 6} ${cy} Z`}
+                    fill={P_CHART_COLOURS.signal}
+                  />
+                );
               }
               return <circle key={key} cx={p.cx} cy={p.cy} r={3} fill={P_CHART_COLOURS.rate} />;
             }}

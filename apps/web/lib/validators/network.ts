@@ -20,7 +20,7 @@ export function dayNumber(date: string): number | null {
 
 export const localDate = z
   .string({ error: 'Give a date as YYYY-MM-DD' })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date as YYYY-MM-DD')
+  .regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Give a date as YYYY-MM-DD', abort: true })
   .refine((s) => dayNumber(s) !== null, 'Not a calendar date');
 
 function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) {

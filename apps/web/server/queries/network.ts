@@ -2,5 +2,5 @@
 export { networkComparison } from './network/comparison';
 export { shopMetrics } from './network/shop';
 export { networkTrends, shopTrends } from './network/trends';
-export type { QueryContext } from './network/context';
+export { networkSettingsUsed, visibleShop, type QueryContext } from './network/context';
 export type * from './network/types';

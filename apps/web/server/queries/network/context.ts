@@ -8,6 +8,7 @@ import {
   type ComebackAttribution,
 } from '@reelwright/metrics';
 import { db } from '../../db';
+import { notFound } from '../../errors';
 import type { Principal } from '../../principal';
 import { shopScope } from '../scope';
 import type { ShopRef } from './types';
@@ -105,4 +106,22 @@ export function openMinutesPerDay(
 export function toRef(shop: NetworkShop): ShopRef {
   const { visible: _visible, ...ref } = shop;
   return ref;
+}
+
+/** One shop in the caller's scope (cheap: no figures); outside the scope it is not found. */
+export async function visibleShop(
+  principal: Principal,
+  shopId: number,
+  ctx: QueryContext = {},
+): Promise<ShopRef> {
+  const { conn } = await resolveContext(ctx);
+  const shop = (await loadShops(conn, principal)).find((s) => s.id === shopId && s.visible);
+  if (!shop) throw notFound('shop');
+  return toRef(shop);
+}
+
+/** The warranty window and counted attributions, for pages that need them before the figures. */
+export async function networkSettingsUsed(ctx: QueryContext = {}): Promise<NetworkSettingsUsed> {
+  const { conn } = await resolveContext(ctx);
+  return loadSettings(conn);
 }

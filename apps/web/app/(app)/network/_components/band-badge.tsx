@@ -8,7 +8,10 @@ const STYLES: Record<FairnessBand, { box: string; mark: string }> = {
   'out of line': { box: 'bg-brick-50 text-brick-800 ring-brick-300', mark: '◆' },
 };
 
-export function BandBadge(props: { band: FairnessBand | null; side?: 'above' | 'below' | 'equal' | null }) {
+export function BandBadge(props: {
+  band: FairnessBand | null;
+  side?: 'above' | 'below' | 'equal' | null;
+}) {
   if (props.band === null) {
     return <span className="text-sm whitespace-nowrap text-slate-600">No band</span>;
   }

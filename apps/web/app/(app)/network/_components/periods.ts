@@ -47,9 +47,16 @@ export const quarterPeriod = (y: number, q: number): Period => ({
 });
 
 /** The season of a year: from the earliest season start to the latest season end ("MM-DD"). */
-export function seasonPeriod(y: number, seasons: readonly { start: string; end: string }[]): Period {
+export function seasonPeriod(
+  y: number,
+  seasons: readonly { start: string; end: string }[],
+): Period {
   const start = seasons.map((s) => s.start).sort()[0] ?? '03-15';
-  const end = seasons.map((s) => s.end).sort().at(-1) ?? '11-15';
+  const end =
+    seasons
+      .map((s) => s.end)
+      .sort()
+      .at(-1) ?? '11-15';
   return { kind: 'season', from: `${y}-${start}`, to: `${y}-${end}` };
 }
 
@@ -60,6 +67,16 @@ export function lastCompleteQuarter(today: string): Period {
   const [y, m] = parts(today);
   const q = Math.floor((m - 1) / 3) + 1;
   return q === 1 ? quarterPeriod(y - 1, 4) : quarterPeriod(y, q - 1);
+}
+
+/**
+ * The default period: the latest calendar quarter whose comeback figures are final, i.e. every
+ * job collected in it has seen its warranty window close by `today`.
+ */
+export function latestFinalQuarter(today: string, warrantyDays: number): Period {
+  let q = lastCompleteQuarter(today);
+  while (addDays(q.to, warrantyDays + 1) > today) q = lastCompleteQuarter(q.from);
+  return q;
 }
 
 /** Today's local date in a zone. */
@@ -78,7 +95,11 @@ export function monthOptions(today: string, count = 36) {
   return Array.from({ length: count }, (_, k) => {
     const index = y * 12 + (m - 1) - k;
     const p = monthPeriod(Math.floor(index / 12), (index % 12) + 1);
-    return { value: p.from.slice(0, 7), label: `${MONTHS[index % 12]} ${Math.floor(index / 12)}`, period: p };
+    return {
+      value: p.from.slice(0, 7),
+      label: `${MONTHS[index % 12]} ${Math.floor(index / 12)}`,
+      period: p,
+    };
   });
 }
 
@@ -101,7 +122,11 @@ export function seasonOptions(
   const [y] = parts(today);
   return Array.from({ length: count }, (_, k) => {
     const p = seasonPeriod(y - k, seasons);
-    return { value: String(y - k), label: `Season ${y - k} (${formatPeriod(p.from, p.to)})`, period: p };
+    return {
+      value: String(y - k),
+      label: `Season ${y - k} (${formatPeriod(p.from, p.to)})`,
+      period: p,
+    };
   });
 }
 
@@ -112,6 +137,12 @@ export function formatPeriod(from: string, to: string) {
   if (fy === ty && fm === tm) return `${fd}–${td} ${MONTHS[tm - 1]} ${ty}`;
   if (fy === ty) return `${fd} ${MONTHS[fm - 1]} – ${td} ${MONTHS[tm - 1]} ${ty}`;
   return `${fd} ${MONTHS[fm - 1]} ${fy} – ${td} ${MONTHS[tm - 1]} ${ty}`;
+}
+
+/** "30 Dec 2026". */
+export function formatDay(date: string) {
+  const [y, m, d] = parts(date);
+  return `${d} ${MONTHS[m - 1]} ${y}`;
 }
 
 /** "Jul 2026" for a "YYYY-MM" label. */
@@ -129,7 +160,11 @@ export function trendWindow(period: { from: string; to: string }) {
 }
 
 /** Whether a preset names exactly this pair of dates (so the picker shows it selected). */
-export function kindOf(from: string, to: string, seasons: readonly { start: string; end: string }[]): PeriodKind {
+export function kindOf(
+  from: string,
+  to: string,
+  seasons: readonly { start: string; end: string }[],
+): PeriodKind {
   const [fy, fm, fd] = parts(from);
   if (fd === 1 && to === monthPeriod(fy, fm).to) return 'month';
   if (fd === 1 && (fm - 1) % 3 === 0 && to === quarterPeriod(fy, (fm + 2) / 3).to) return 'quarter';
@@ -149,11 +184,11 @@ export interface ViewParams {
 
 /**
  * Reads the view's address: `from`, `to` (local dates), `region` and `units`. A missing or bad
- * period falls back to the last complete quarter.
+ * period falls back to the given default.
  */
 export function readViewParams(
   search: Record<string, string | string[] | undefined>,
-  today: string,
+  fallback: { from: string; to: string },
 ): ViewParams {
   const one = (k: string) => {
     const v = search[k];
@@ -175,7 +210,6 @@ export function readViewParams(
     dayNumber(to)! - dayNumber(from)! + 1 <= MAX_PERIOD_DAYS;
   if (!valid) {
     const asked = from !== undefined || to !== undefined;
-    const fallback = lastCompleteQuarter(today);
     return { from: fallback.from, to: fallback.to, region, units, invalid: asked };
   }
   return { from, to, region, units, invalid: false };

@@ -1,55 +1,71 @@
+import { dehydrate, HydrationBoundary, QueryClient } from '@tanstack/react-query';
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { PageHeader, Panel, Stat } from '~/components/ui';
-import { formatCount } from '~/lib/format';
-import { JOB_STATE_LABELS } from '~/lib/labels';
+import { PageHeader } from '~/components/ui';
+import { shopMetricsQuery, shopTrendsQuery } from '~/lib/queries/network';
 import { idParam } from '~/lib/validators/common';
+import { TREND_METRICS } from '~/lib/validators/network';
 import { ApiError } from '~/server/errors';
-import { jobCounts, oldestOpenJobs } from '~/server/queries/jobs';
-import { getShop } from '~/server/queries/shops';
+import {
+  networkSettingsUsed,
+  shopMetrics,
+  shopTrends,
+  visibleShop,
+} from '~/server/queries/network';
 import { requirePagePrincipal } from '~/server/session';
-import { OpenJobsTable } from '../../_components/open-jobs-table';
+import {
+  formatPeriod,
+  latestFinalQuarter,
+  readViewParams,
+  todayIn,
+  trendWindow,
+} from '../../network/_components/periods';
+import { ShopView } from './_components/shop-view';
 
 export const metadata: Metadata = { title: 'Shop' };
 export const dynamic = 'force-dynamic';
 
-export default async function ShopPage({ params }: { params: Promise<{ id: string }> }) {
+export default async function ShopPage(props: {
+  params: Promise<{ id: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const principal = await requirePagePrincipal();
-  const id = idParam.safeParse((await params).id);
+  const id = idParam.safeParse((await props.params).id);
   if (!id.success) notFound();
   const asOf = new Date();
   try {
-    const shop = await getShop(principal, id.data);
-    const [counts, open] = await Promise.all([
-      jobCounts(principal, shop.id),
-      oldestOpenJobs(principal, shop.id, { limit: 15 }),
-    ]);
-    const n = (k: keyof typeof JOB_STATE_LABELS) => formatCount(counts.byState[k] ?? 0);
+    const { timeZone } = await visibleShop(principal, id.data);
+    const today = todayIn(timeZone, asOf);
+    const { warrantyDays } = await networkSettingsUsed();
+    const view = readViewParams(await props.searchParams, latestFinalQuarter(today, warrantyDays));
+    const period = { from: view.from, to: view.to };
+    const trend = trendWindow(period);
+    const queryClient = new QueryClient();
+    const metrics = await shopMetrics(principal, id.data, period, { asOf });
+    queryClient.setQueryData(shopMetricsQuery(id.data, period).queryKey, metrics);
+    for (const metric of TREND_METRICS) {
+      queryClient.setQueryData(
+        shopTrendsQuery(id.data, trend, metric).queryKey,
+        await shopTrends(principal, id.data, { ...trend, metric }, { asOf }),
+      );
+    }
+    const shop = metrics.figures.shop;
     return (
       <>
         <PageHeader
           title={shop.name}
-          lead={`${shop.region.name} · times shown in ${shop.timeZone.replace('_', ' ')}`}
+          lead={`${shop.region.name} · ${formatPeriod(view.from, view.to)} · times in ${shop.timeZone.replace('_', ' ')}`}
         />
-        <dl className="mb-8 grid grid-cols-2 gap-4 lg:grid-cols-5">
-          <Stat label={JOB_STATE_LABELS.checked_in} value={n('checked_in')} />
-          <Stat label={JOB_STATE_LABELS.on_bench} value={n('on_bench')} />
-          <Stat label={JOB_STATE_LABELS.waiting_parts} value={n('waiting_parts')} />
-          <Stat label={JOB_STATE_LABELS.ready} value={n('ready')} />
-          <Stat label={JOB_STATE_LABELS.collected} value={n('collected')} hint="All time" />
-        </dl>
-        <Panel
-          title="Open jobs, oldest first"
-          description="Reels not yet collected, with how long they have been in."
-        >
-          <OpenJobsTable
-            jobs={open}
-            timeZone={shop.timeZone}
-            asOf={asOf}
-            caption={`Open jobs at ${shop.name}, oldest first`}
-            showTechnician
+        <HydrationBoundary state={dehydrate(queryClient)}>
+          <ShopView
+            shopId={id.data}
+            period={period}
+            trend={trend}
+            today={today}
+            unit={view.units}
+            invalid={view.invalid}
           />
-        </Panel>
+        </HydrationBoundary>
       </>
     );
   } catch (error) {

@@ -1,0 +1,157 @@
+'use client';
+
+import { useQuery } from '@tanstack/react-query';
+import { Panel } from '~/components/ui';
+import { comparisonQuery, networkTrendsQuery, type PeriodParams } from '~/lib/queries/network';
+import type { TurnaroundUnit } from '~/lib/validators/network';
+import { ComparisonTable } from './comparison-table';
+import { CensoringNote } from './censoring-note';
+import { formatCount, formatMoney, formatPercent } from './format';
+import { FunnelPanel } from './funnel-panel';
+import { PeriodPicker } from './period-picker';
+import { formatMonth, formatPeriod } from './periods';
+import { ComebackPCharts, RevenueTrend, TurnaroundTrend } from './trend-charts';
+import { UnitsToggle } from './units-toggle';
+
+function Loading({ what }: { what: string }) {
+  return <p className="text-slate-600">Loading {what}…</p>;
+}
+
+function Failed({ error }: { error: Error }) {
+  return (
+    <p role="alert" className="text-brick-700">
+      Could not load the figures: {error.message}
+    </p>
+  );
+}
+
+/** The network view: period, the shops side by side, funnel plots and monthly trends. */
+export function NetworkView(props: {
+  params: PeriodParams;
+  trendParams: PeriodParams;
+  today: string;
+  unit: TurnaroundUnit;
+  invalid: boolean;
+}) {
+  const comparison = useQuery(comparisonQuery(props.params));
+  const pTrend = useQuery(networkTrendsQuery(props.trendParams, 'comebacks'));
+  const tTrend = useQuery(networkTrendsQuery(props.trendParams, 'turnaround'));
+  const rTrend = useQuery(networkTrendsQuery(props.trendParams, 'revenue'));
+  if (comparison.isPending) return <Loading what="the comparison" />;
+  if (comparison.isError) return <Failed error={comparison.error} />;
+  const data = comparison.data;
+  const span = `${formatMonth(props.trendParams.from.slice(0, 7))} – ${formatMonth(props.trendParams.to.slice(0, 7))}`;
+  const period = formatPeriod(data.period.from, data.period.to);
+  const seasons = data.shops.map((s) => ({ start: s.shop.seasonStart, end: s.shop.seasonEnd }));
+  return (
+    <>
+      <PeriodPicker
+        path="/network"
+        from={data.period.from}
+        to={data.period.to}
+        today={props.today}
+        seasons={seasons}
+        units={props.unit}
+        region={props.params.region}
+        regions={data.regions.length > 1 ? data.regions : undefined}
+      />
+      {props.invalid && (
+        <p
+          role="status"
+          className="mb-4 rounded-md border border-amber-300 bg-amber-50 px-4 py-2 text-amber-900"
+        >
+          The period in the address is not a valid pair of dates, so the latest quarter with final
+          comeback figures is shown.
+        </p>
+      )}
+      <dl className="mb-6 grid grid-cols-2 gap-4 lg:grid-cols-4">
+        <Fact
+          label="Shops shown"
+          value={formatCount(data.view.shops)}
+          hint={data.region ? data.region.name : `of ${data.network.shops} in the network`}
+        />
+        <Fact label="Jobs ready" value={formatCount(data.view.jobsReady)} hint={period} />
+        <Fact
+          label="Network comeback rate"
+          value={formatPercent(data.network.comebacks.rate)}
+          hint={`${formatCount(data.network.comebacks.events)} of ${formatCount(data.network.comebacks.trials)} jobs, all ${data.network.shops} shops`}
+        />
+        <Fact
+          label="Network revenue per bench hour"
+          value={formatMoney(data.network.revenue.perBenchHourCents)}
+          hint="Labour + parts − discount"
+        />
+      </dl>
+      <CensoringNote
+        collected={data.view.comebacks.collected}
+        censored={data.view.comebacks.censored}
+        warrantyDays={data.settings.warrantyDays}
+        to={data.period.to}
+      />
+      <div className="grid gap-8">
+        <Panel
+          title="Shops side by side"
+          description={`${period}. Each figure counts the shop's own jobs in its own time zone.`}
+        >
+          <div className="mb-2">
+            <UnitsToggle unit={props.unit} />
+          </div>
+          <ComparisonTable
+            data={data}
+            unit={props.unit}
+            caption={`Shops side by side, ${period}`}
+          />
+        </Panel>
+        <Panel
+          title="Fair comparison: rate against volume"
+          description="A small shop's rate swings more by chance. The curves show how far from the network rate a shop of each volume can fall by chance alone."
+        >
+          <FunnelPanel data={data} />
+        </Panel>
+        <Panel
+          title={`Trends, ${span}`}
+          description="The twelve months to the end of the period, month by month in each shop's time zone."
+        >
+          <div className="grid gap-10">
+            <section aria-labelledby="trend-comebacks-heading">
+              <h3 id="trend-comebacks-heading" className="sr-only">
+                Monthly comeback rate per shop
+              </h3>
+              {pTrend.isPending ? (
+                <Loading what="the comeback trend" />
+              ) : pTrend.isError ? (
+                <Failed error={pTrend.error} />
+              ) : pTrend.data.metric === 'comebacks' ? (
+                <ComebackPCharts result={pTrend.data} span={span} />
+              ) : null}
+            </section>
+            {tTrend.isPending ? (
+              <Loading what="the turnaround trend" />
+            ) : tTrend.isError ? (
+              <Failed error={tTrend.error} />
+            ) : tTrend.data.metric === 'turnaround' ? (
+              <TurnaroundTrend result={tTrend.data} unit={props.unit} span={span} />
+            ) : null}
+            {rTrend.isPending ? (
+              <Loading what="the revenue trend" />
+            ) : rTrend.isError ? (
+              <Failed error={rTrend.error} />
+            ) : rTrend.data.metric === 'revenue' ? (
+              <RevenueTrend result={rTrend.data} span={span} />
+            ) : null}
+          </div>
+        </Panel>
+      </div>
+    </>
+  );
+}
+
+function Fact(props: { label: string; value: string; hint?: string }) {
+  return (
+    <div className="rounded-lg border border-sand-200 bg-white px-4 py-3 shadow-sm">
+      <dt className="text-sm font-medium text-slate-600">{props.label}</dt>
+      <dd className="mt-1 text-2xl font-semibold text-slate-900 tabular-nums">{props.value}</dd>
+      {props.hint && <dd className="mt-0.5 text-sm text-slate-600">{props.hint}</dd>}
+    </div>
+  );
+}
