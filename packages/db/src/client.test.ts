@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { cpSync, mkdtempSync } from 'node:fs';
+import { cpSync, mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
@@ -93,6 +93,7 @@ describe('migrations folder', () => {
     } finally {
       if (previous === undefined) delete process.env.REELWRIGHT_MIGRATIONS_DIR;
       else process.env.REELWRIGHT_MIGRATIONS_DIR = previous;
+      rmSync(path.dirname(copy), { recursive: true, force: true });
     }
   });
 });

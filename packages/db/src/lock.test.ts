@@ -1,5 +1,5 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -9,9 +9,12 @@ import { DataDirInUseError, LOCK_FILE_NAME, lockDataDir } from './lock';
 
 const holderScript = fileURLToPath(new URL('./test/lock-holder.ts', import.meta.url));
 const children: ChildProcess[] = [];
+const folders: string[] = [];
 
 function tempDataDir(): string {
-  return path.join(mkdtempSync(path.join(os.tmpdir(), 'rw-lock-')), 'pglite');
+  const root = mkdtempSync(path.join(os.tmpdir(), 'rw-lock-'));
+  folders.push(root);
+  return path.join(root, 'pglite');
 }
 
 /** Starts a process that takes the folder lock, and resolves once it holds it. */
@@ -46,6 +49,7 @@ afterEach(async () => {
     if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL');
     await exited(child);
   }
+  for (const root of folders.splice(0)) rmSync(root, { recursive: true, force: true });
 });
 
 describe('PGlite folder lock', () => {
