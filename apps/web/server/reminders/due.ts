@@ -81,12 +81,32 @@ export const localToday = (now: Date, timeZone: string) =>
 const DAY = 86_400_000;
 const dayString = (day: number) => new Date(day * DAY).toISOString().slice(0, 10);
 
+/** A due date that passed this recently is still reminded (shown as overdue). */
+export const GRACE_DAYS = 14;
+
 /**
- * The reels of the shop's customers whose next service (from the last service and use profile, by
- * @reelwright/metrics `nextServiceDue`: a year after for light use; the next of season start, middle
- * and end for heavy use) falls on or before today + `weeks`, overdue ones included, earliest first.
- * Each says whether a reminder will go (consent and an e-mail address), or already went for that
- * due date.
+ * The reel's scheduled service date on or after `from`: the next due date after the last service
+ * (`nextServiceDue`), and if that lapsed, the schedule carried on from it — a year later for light
+ * use, the next season point for heavy use — so a customer who skipped a service is reminded of
+ * the next one rather than of one long past.
+ */
+export function scheduledDue(
+  lastServicedOn: string,
+  profile: UseProfile,
+  season: { start: string; end: string },
+  from: string,
+): string {
+  let due = nextServiceDue(lastServicedOn, profile, season);
+  for (let i = 0; due < from && i < 100; i++) due = nextServiceDue(due, profile, season);
+  return due;
+}
+
+/**
+ * The reels of the shop's customers whose scheduled service (from the last service and use profile,
+ * by @reelwright/metrics `nextServiceDue`: a year after for light use; the next of season start,
+ * middle and end for heavy use; see `scheduledDue`) falls in the coming `weeks`, or fell due in the
+ * last GRACE_DAYS, earliest first. Each says whether a reminder will go (consent and an e-mail
+ * address), or already went for that due date.
  */
 export async function dueReminders(
   principal: Principal,
@@ -98,6 +118,7 @@ export async function dueReminders(
   const shop = await reminderShop(conn, principal, shopId);
   const today = localToday(options.now ?? new Date(), shop.timeZone);
   const horizonDay = civilDayNumber(today) + weeks * 7;
+  const from = dayString(civilDayNumber(today) - GRACE_DAYS);
   const season = { start: shop.seasonStart, end: shop.seasonEnd };
   const rows = await conn
     .select({
@@ -118,7 +139,7 @@ export async function dueReminders(
     .where(and(eq(customers.shopId, shop.id), isNotNull(reels.lastServicedOn)))
     .orderBy(asc(reels.id));
   const due = rows
-    .map((r) => ({ ...r, dueOn: nextServiceDue(r.lastServicedOn!, r.useProfile, season) }))
+    .map((r) => ({ ...r, dueOn: scheduledDue(r.lastServicedOn!, r.useProfile, season, from) }))
     .filter((r) => civilDayNumber(r.dueOn) <= horizonDay);
   const sent = due.length
     ? await conn

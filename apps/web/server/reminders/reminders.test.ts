@@ -80,7 +80,9 @@ beforeAll(async () => {
     r('Heavy-april', 'Ada', 'heavy', '2026-11-15'), // due at season start 2027-04-01: 8 weeks, not 4
     r('No-consent', 'Ben', 'light', '2026-03-10'),
     r('No-email', 'Cy', 'light', '2026-03-05'),
-    r('Overdue', 'Dee', 'light', '2025-12-01'), // due 2026-12-01: overdue, still reminded
+    r('Overdue', 'Dee', 'light', '2026-02-10'), // due 2027-02-10: ten days overdue, still reminded
+    r('Lapsed', 'Dee', 'light', '2025-03-04'), // due 2026-03-04, skipped: reminded for 2027-03-04
+    r('Long-lapsed-heavy', 'Dee', 'heavy', '2025-06-01'), // season points lapsed: next is 2027-04-01
     r('Not-due', 'Dee', 'light', '2026-09-01'),
     r('Never-serviced', 'Dee', 'light', null),
     r('Other-shop', 'Eve', 'light', '2026-03-01'),
@@ -102,14 +104,18 @@ describe('service reminders', () => {
     expect(report.today).toBe('2027-02-20');
     expect(report.horizon).toBe('2027-03-20');
     expect(report.reels.map((r) => [r.reel, r.dueOn, r.reminder, r.overdue])).toEqual([
-      ['Tidewake Overdue 3000', '2026-12-01', 'to_send', true],
+      ['Tidewake Overdue 3000', '2027-02-10', 'to_send', true],
       ['Tidewake Light-due 3000', '2027-03-01', 'to_send', false],
+      ['Tidewake Lapsed 3000', '2027-03-04', 'to_send', false],
       ['Tidewake No-email 3000', '2027-03-05', 'no_email', false],
       ['Tidewake No-consent 3000', '2027-03-10', 'no_consent', false],
     ]);
-    expect(report.counts).toEqual({ due: 4, to_send: 2, sent: 0, no_consent: 1, no_email: 1 });
+    expect(report.counts).toEqual({ due: 5, to_send: 3, sent: 0, no_consent: 1, no_email: 1 });
     const eight = await dueReminders(net.leadDune, net.shops.dune.id, 8, { now: NOW });
     expect(eight.reels.find((r) => r.reelId === reel['Heavy-april'])?.dueOn).toBe('2027-04-01');
+    expect(eight.reels.find((r) => r.reelId === reel['Long-lapsed-heavy'])?.dueOn).toBe(
+      '2027-04-01',
+    );
   });
 
   it('shop lead – another shop is not found', async () => {
@@ -124,7 +130,7 @@ describe('service reminders', () => {
       { shopId: net.shops.dune.id, weeks: 4 },
       { now: NOW },
     );
-    expect(first.batch).toMatchObject({ status: 'running', total: 2, sent: 0 });
+    expect(first.batch).toMatchObject({ status: 'running', total: 3, sent: 0 });
     // A second click while the first batch runs gets the same batch back.
     const clicked = await startReminderBatch(
       net.leadDune,
@@ -139,8 +145,8 @@ describe('service reminders', () => {
     ]);
     const done = await getBatch(net.leadDune, first.batch.id);
     expect(done.status).toBe('done');
-    expect(done.sent + done.skipped).toBe(4);
-    expect(done.sent).toBe(2);
+    expect(done.sent + done.skipped).toBe(6);
+    expect(done.sent).toBe(3);
 
     const later = await startReminderBatch(
       net.leadDune,
@@ -152,22 +158,27 @@ describe('service reminders', () => {
 
     const conn = state.handle!.db;
     const queued = await conn.select().from(emails).where(eq(emails.kind, 'service_reminder'));
-    expect(queued.map((e) => e.toAddress).sort()).toEqual(['ada@example.test', 'dee@example.test']);
+    expect(queued.map((e) => e.toAddress).sort()).toEqual([
+      'ada@example.test',
+      'dee@example.test',
+      'dee@example.test',
+    ]);
     const sent = await conn.select().from(remindersSent);
     expect(sent.map((s) => [s.reelId, s.dueOn]).sort()).toEqual(
       [
         [reel['Light-due'], '2027-03-01'],
-        [reel['Overdue'], '2026-12-01'],
+        [reel['Lapsed'], '2027-03-04'],
+        [reel['Overdue'], '2027-02-10'],
       ].sort(),
     );
     expect(sent.every((s) => s.emailId !== null && s.batchId === first.batch.id)).toBe(true);
 
     const transport = nodemailer.createTransport({ jsonTransport: true });
-    expect(await deliverPending({ db: conn, transport })).toEqual({ sent: 2, failed: 0 });
+    expect(await deliverPending({ db: conn, transport })).toEqual({ sent: 3, failed: 0 });
     expect(await deliverPending({ db: conn, transport })).toEqual({ sent: 0, failed: 0 });
 
     const after = await dueReminders(net.leadDune, net.shops.dune.id, 4, { now: NOW });
-    expect(after.counts).toMatchObject({ to_send: 0, sent: 2 });
+    expect(after.counts).toMatchObject({ to_send: 0, sent: 3 });
   });
 
   it('customer – the unsubscribe link in the e-mail records the opt-out, no sign-in', async () => {

@@ -77,14 +77,15 @@ export function MonthCloseView(props: {
           hint={`${n(data.totals.jobs.checkedIn)} checked in, ${n(data.totals.jobs.ready)} ready`}
         />
         <Stat
-          label="Comeback rate"
-          value={percent(data.totals.comebacks.rate)}
-          hint={`${n(data.totals.comebacks.events)} of ${n(data.totals.comebacks.trials)} jobs with a closed warranty window`}
+          label="Revenue per bench hour"
+          value={money(data.totals.revenuePerBenchHourCents, data.currency)}
+          hint={`${(data.totals.benchMinutes / 60).toFixed(0)} bench hours logged on collected jobs`}
         />
       </dl>
       {data.status === 'closed' && <Differences report={data} />}
       <MoneyTable report={data} />
       <WorkTable report={data} />
+      <TurnaroundTable report={data} />
       <QualityTable report={data} />
       <Definitions report={data} />
       {data.history.length > 0 && <History report={data} />}
@@ -202,13 +203,24 @@ function OwnerActions({
   const failure = close.error ?? reopen.error ?? issue.error;
   const invoiced = report.shops.filter((s) => s.invoice).length;
   const due = report.shops.filter((s) => s.royaltyCents > 0).length;
+  const withStatus = (status: string) =>
+    report.shops.filter((s) => s.invoice?.status === status).length;
+  const standing = [
+    [withStatus('paid'), 'paid'],
+    [withStatus('open'), 'sent and unpaid'],
+    [withStatus('failed'), 'with a failed payment'],
+    [withStatus('pending'), 'not sent yet'],
+  ]
+    .filter(([count]) => count)
+    .map(([count, what]) => `${count} ${what}`)
+    .join(', ');
 
   return (
     <Panel
       title={report.status === 'closed' ? 'Royalty invoices' : `Close ${label}`}
       description={
         report.status === 'closed'
-          ? `Invoices go to each shop through the payment provider: finalised and sent, payable in 30 days. Issuing again only sends what is missing; no shop is billed twice. ${invoiced} of ${due} shops with a royalty due have an invoice.`
+          ? `Invoices go to each shop through the payment provider: finalised and sent, payable in 30 days. Issuing again only sends what is missing; no shop is billed twice. ${invoiced} of ${due} shops with a royalty due have an invoice${standing ? `: ${standing}` : ''}.`
           : 'Closing freezes every shop’s figures and royalties as they stand now. A later edit to a job then shows as a difference against the live figures instead of changing the record.'
       }
     >
@@ -336,47 +348,48 @@ function Differences({ report }: { report: MonthCloseData }) {
       ? DASH
       : field.startsWith('money.') || field === 'royaltyCents'
         ? money(value, report.currency)
-        : field.endsWith('Minutes')
+        : field.endsWith('Minutes') && field !== 'benchMinutes'
           ? hours(value)
           : field === 'royaltyRateBp'
             ? rateBp(value)
             : n(value);
+  if (!diffs.length)
+    return (
+      <p className="rounded-md border border-sand-200 bg-white px-5 py-4 text-slate-700">
+        <span className="font-medium text-slate-900">No changes since closing.</span> The live
+        figures, judged as of the close, still match the frozen ones.
+      </p>
+    );
   return (
     <Panel
       title="Changed since closing"
-      description={
-        diffs.length
-          ? 'Jobs or reviews edited after the close. The frozen figures stay the record; reopen and close again to take the changes in.'
-          : `The live figures, judged as of the close, still match the frozen ones.`
-      }
+      description="Jobs or reviews edited after the close. The frozen figures stay the record; reopen and close the month again to take the changes in."
     >
-      {diffs.length > 0 && (
-        <TableFrame label="Figures changed since closing">
-          <table className="w-full min-w-[36rem] text-left">
-            <caption className="sr-only">Figures changed since the month was closed</caption>
-            <thead>
-              <tr className="border-b border-sand-300 text-sm text-slate-600">
-                <Th>Shop</Th>
-                <Th>Figure</Th>
-                <Th num>Frozen</Th>
-                <Th num>Live now</Th>
+      <TableFrame label="Figures changed since closing">
+        <table className="w-full min-w-[36rem] text-left">
+          <caption className="sr-only">Figures changed since the month was closed</caption>
+          <thead>
+            <tr className="border-b border-sand-300 text-sm text-slate-600">
+              <Th>Shop</Th>
+              <Th>Figure</Th>
+              <Th num>Frozen</Th>
+              <Th num>Live now</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {diffs.map((d) => (
+              <tr key={`${d.shopId}-${d.field}`} className="border-b border-sand-100">
+                <th scope="row" className="py-3 pr-4 font-medium">
+                  {d.shopName}
+                </th>
+                <td className="py-3 pr-4">{d.label}</td>
+                <td className="num py-3 pr-4">{show(d.field, d.frozen)}</td>
+                <td className="num py-3 font-semibold text-amber-900">{show(d.field, d.live)}</td>
               </tr>
-            </thead>
-            <tbody>
-              {diffs.map((d) => (
-                <tr key={`${d.shopId}-${d.field}`} className="border-b border-sand-100">
-                  <th scope="row" className="py-3 pr-4 font-medium">
-                    {d.shopName}
-                  </th>
-                  <td className="py-3 pr-4">{d.label}</td>
-                  <td className="num py-3 pr-4">{show(d.field, d.frozen)}</td>
-                  <td className="num py-3 font-semibold text-amber-900">{show(d.field, d.live)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </TableFrame>
-      )}
+            ))}
+          </tbody>
+        </table>
+      </TableFrame>
     </Panel>
   );
 }
@@ -439,8 +452,8 @@ function MoneyTable({ report }: { report: MonthCloseData }) {
       description={`Billed revenue of the jobs collected in the month (labour + parts − discounts), in ${c}. Royalty = billed revenue × the shop's rate, rounded to the cent, half to even.`}
     >
       <TableFrame label="Revenue and royalties per shop">
-        <table className="w-full min-w-[60rem] text-left">
-          <caption className="sr-only">Revenue, bench time, royalty and invoice per shop</caption>
+        <table className="w-full min-w-[50rem] text-left">
+          <caption className="sr-only">Revenue, royalty and invoice per shop</caption>
           <thead>
             <tr className="border-b border-sand-300 text-sm text-slate-600">
               <Th>Shop</Th>
@@ -448,8 +461,6 @@ function MoneyTable({ report }: { report: MonthCloseData }) {
               <Th num>Parts</Th>
               <Th num>Discounts</Th>
               <Th num>Billed revenue</Th>
-              <Th num>Bench hours</Th>
-              <Th num>Revenue per bench hour</Th>
               <Th num>Royalty rate</Th>
               <Th num>Royalty due</Th>
               <Th>Invoice</Th>
@@ -457,14 +468,12 @@ function MoneyTable({ report }: { report: MonthCloseData }) {
           </thead>
           <tbody>
             {report.shops.map((r) => (
-              <tr key={r.shop.id} className="border-b border-sand-100" data-shop={r.shop.name}>
+              <tr key={r.shop.id} className="border-b border-sand-100">
                 <ShopCell row={r} />
                 <td className="num py-3 pr-4">{money(r.money.labourCents, c)}</td>
                 <td className="num py-3 pr-4">{money(r.money.partsCents, c)}</td>
                 <td className="num py-3 pr-4">{money(r.money.discountCents, c)}</td>
                 <td className="num py-3 pr-4 font-medium">{money(r.money.billedCents, c)}</td>
-                <td className="num py-3 pr-4">{(r.benchMinutes / 60).toFixed(1)}</td>
-                <td className="num py-3 pr-4">{money(r.revenuePerBenchHourCents, c)}</td>
                 <td className="num py-3 pr-4">{rateBp(r.royaltyRateBp)}</td>
                 <td className="num py-3 pr-4 font-medium">{money(r.royaltyCents, c)}</td>
                 <td className="py-3">
@@ -480,8 +489,6 @@ function MoneyTable({ report }: { report: MonthCloseData }) {
               <td className="num py-3 pr-4">{money(t.money.partsCents, c)}</td>
               <td className="num py-3 pr-4">{money(t.money.discountCents, c)}</td>
               <td className="num py-3 pr-4">{money(t.money.billedCents, c)}</td>
-              <td className="num py-3 pr-4">{(t.benchMinutes / 60).toFixed(1)}</td>
-              <td className="num py-3 pr-4">{money(t.revenuePerBenchHourCents, c)}</td>
               <td className="num py-3 pr-4">{DASH}</td>
               <td className="num py-3 pr-4">{money(t.royaltyCents, c)}</td>
               <td className="py-3" />
@@ -494,15 +501,14 @@ function MoneyTable({ report }: { report: MonthCloseData }) {
 }
 
 function WorkTable({ report }: { report: MonthCloseData }) {
+  const c = report.currency;
   const cells = (f: Row | Totals) => (
     <>
       <td className="num py-3 pr-4">{n(f.jobs.checkedIn)}</td>
       <td className="num py-3 pr-4">{n(f.jobs.ready)}</td>
       <td className="num py-3 pr-4">{n(f.jobs.collected)}</td>
-      <td className="num py-3 pr-4">{hours(f.customerTurnaround.medianMinutes)}</td>
-      <td className="num py-3 pr-4">{hours(f.customerTurnaround.p90Minutes)}</td>
-      <td className="num py-3 pr-4">{hours(f.benchTurnaround.medianMinutes)}</td>
-      <td className="num py-3 pr-4">{hours(f.benchTurnaround.p90Minutes)}</td>
+      <td className="num py-3 pr-4">{(f.benchMinutes / 60).toFixed(1)}</td>
+      <td className="num py-3 pr-4">{money(f.revenuePerBenchHourCents, c)}</td>
       <td className="num py-3">
         {percent(f.onTime.share, 0)}
         <span className="block text-sm font-normal text-slate-600">
@@ -513,23 +519,69 @@ function WorkTable({ report }: { report: MonthCloseData }) {
   );
   return (
     <Panel
-      title="Work and turnaround"
-      description="Turnaround in business hours (opening hours only) for the jobs that became ready in the month: customer turnaround from check-in to ready, bench turnaround without the time waiting on parts. Median and 90th percentile (Hyndman & Fan type 7)."
+      title="Work and bench time"
+      description="Jobs checked in, ready and collected in the month. Bench hours are those logged on the jobs collected, so revenue per bench hour compares like with like. Ready on time: ready by the promised time, of the jobs ready in the month that had one."
     >
-      <TableFrame label="Work and turnaround per shop">
-        <table className="w-full min-w-[52rem] text-left">
-          <caption className="sr-only">Jobs and turnaround per shop</caption>
+      <TableFrame label="Work and bench time per shop">
+        <table className="w-full min-w-[46rem] text-left">
+          <caption className="sr-only">Jobs, bench time and on-time share per shop</caption>
           <thead>
             <tr className="border-b border-sand-300 text-sm text-slate-600">
               <Th>Shop</Th>
               <Th num>Checked in</Th>
               <Th num>Ready</Th>
               <Th num>Collected</Th>
-              <Th num>Customer median</Th>
-              <Th num>Customer p90</Th>
-              <Th num>Bench median</Th>
-              <Th num>Bench p90</Th>
+              <Th num>Bench hours</Th>
+              <Th num>Revenue per bench hour</Th>
               <Th num>Ready on time</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {report.shops.map((r) => (
+              <tr key={r.shop.id} className="border-b border-sand-100">
+                <ShopCell row={r} />
+                {cells(r)}
+              </tr>
+            ))}
+          </tbody>
+          <tfoot>
+            <tr className="font-semibold">
+              <TotalsCell totals={report.totals} />
+              {cells(report.totals)}
+            </tr>
+          </tfoot>
+        </table>
+      </TableFrame>
+    </Panel>
+  );
+}
+
+function TurnaroundTable({ report }: { report: MonthCloseData }) {
+  const cells = (f: Row | Totals) => (
+    <>
+      <td className="num py-3 pr-4">{n(f.customerTurnaround.count)}</td>
+      <td className="num py-3 pr-4">{hours(f.customerTurnaround.medianMinutes)}</td>
+      <td className="num py-3 pr-4">{hours(f.customerTurnaround.p90Minutes)}</td>
+      <td className="num py-3 pr-4">{hours(f.benchTurnaround.medianMinutes)}</td>
+      <td className="num py-3">{hours(f.benchTurnaround.p90Minutes)}</td>
+    </>
+  );
+  return (
+    <Panel
+      title="Turnaround"
+      description="Business hours (opening hours only) for the jobs that became ready in the month: customer turnaround from check-in to ready; bench turnaround without the time waiting on parts. Median and 90th percentile (Hyndman & Fan type 7)."
+    >
+      <TableFrame label="Turnaround per shop">
+        <table className="w-full min-w-[40rem] text-left">
+          <caption className="sr-only">Customer and bench turnaround per shop</caption>
+          <thead>
+            <tr className="border-b border-sand-300 text-sm text-slate-600">
+              <Th>Shop</Th>
+              <Th num>Jobs ready</Th>
+              <Th num>Customer median</Th>
+              <Th num>Customer 90th percentile</Th>
+              <Th num>Bench median</Th>
+              <Th num>Bench 90th percentile</Th>
             </tr>
           </thead>
           <tbody>
@@ -575,7 +627,7 @@ function QualityTable({ report }: { report: MonthCloseData }) {
   return (
     <Panel
       title="Quality"
-      description={`Comeback rate of the jobs collected in the month whose ${report.warrantyDays}-day warranty window had closed by ${utc(report.asOf)}, plus those that already came back; jobs still inside their window are left out until it closes. Audit rounds decided in the month; corrective actions open at its end.`}
+      description={`Comeback rate of the jobs collected in the month whose ${report.warrantyDays}-day warranty window had closed by ${utc(report.asOf)}, plus those that already came back. Jobs still inside their window are left out, so soon after the month most are, the rate rests on few jobs and leans on the returns: read the interval, not only the rate. Audit rounds decided in the month; corrective actions open at its end.`}
     >
       <TableFrame label="Quality per shop">
         <table className="w-full min-w-[48rem] text-left">

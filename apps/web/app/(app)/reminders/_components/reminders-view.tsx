@@ -66,6 +66,7 @@ export function RemindersView({ shopId, initialWeeks }: { shopId: number; initia
   const [weeks, setWeeks] = useState(initialWeeks);
   const [confirming, setConfirming] = useState(false);
   const [batchId, setBatchId] = useState<number | null>(null);
+  const [show, setShow] = useState<'all' | Reminder | 'not_reminded'>('all');
   const due = useQuery(dueRemindersQuery(shopId, weeks));
   const batches = useQuery(reminderBatchesQuery(shopId));
   const batch = useQuery({ ...reminderBatchQuery(batchId ?? 0), enabled: batchId !== null });
@@ -101,6 +102,13 @@ export function RemindersView({ shopId, initialWeeks }: { shopId: number; initia
   const running = status === 'running';
   const progress = batch.data;
   const handled = progress ? progress.sent + progress.skipped + progress.failed : 0;
+  const shown = report.reels.filter((r) =>
+    show === 'all'
+      ? true
+      : show === 'not_reminded'
+        ? r.reminder === 'no_consent' || r.reminder === 'no_email'
+        : r.reminder === show,
+  );
 
   return (
     <div className="space-y-8">
@@ -213,8 +221,31 @@ export function RemindersView({ shopId, initialWeeks }: { shopId: number; initia
         title={`Reels due by ${day(report.horizon)}`}
         description={`Earliest first, as of ${day(report.today)} at ${report.shop.name}. Only customers who agreed to reminders get one, each with a link to stop them.`}
       >
+        {report.reels.length > 0 && (
+          <div className="mb-4 flex flex-col gap-1">
+            <label htmlFor={`${id}-show`} className="text-sm font-medium text-slate-700">
+              Show
+            </label>
+            <select
+              id={`${id}-show`}
+              value={show}
+              onChange={(e) => setShow(e.target.value as typeof show)}
+              className={`${field} self-start`}
+            >
+              <option value="all">All {report.counts.due} reels due</option>
+              <option value="to_send">Will get a reminder ({report.counts.to_send})</option>
+              <option value="sent">Already reminded ({report.counts.sent})</option>
+              <option value="not_reminded">
+                Not reminded: no consent or no e-mail (
+                {report.counts.no_consent + report.counts.no_email})
+              </option>
+            </select>
+          </div>
+        )}
         {report.reels.length === 0 ? (
           <Empty>No reel is due in the next {weeks} weeks.</Empty>
+        ) : shown.length === 0 ? (
+          <Empty>None of the reels due is in this group.</Empty>
         ) : (
           <div
             className="overflow-x-auto"
@@ -249,7 +280,7 @@ export function RemindersView({ shopId, initialWeeks }: { shopId: number; initia
                 </tr>
               </thead>
               <tbody>
-                {report.reels.map((r) => (
+                {shown.map((r) => (
                   <tr key={r.reelId} className="border-b border-sand-100">
                     <td className="py-3 pr-4 whitespace-nowrap tabular-nums">
                       {day(r.dueOn)}
