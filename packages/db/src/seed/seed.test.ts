@@ -57,23 +57,18 @@ describe(`demo seed determinism (${TARGET})`, () => {
 describe(`the demo network (${TARGET})`, () => {
   let handle: DbHandle;
   let db: Db;
-  let cpuSeconds = 0;
 
   beforeAll(async () => {
     handle = await freshDb();
     await runMigrations(handle);
     expect(await isEmpty(handle.db)).toBe(true);
-    // CPU time, not wall time: PGlite runs in this process, and a busy machine must not fail it.
-    const before = process.cpuUsage();
     await seedDemo(handle.db);
-    const used = process.cpuUsage(before);
-    cpuSeconds = (used.user + used.system) / 1e6;
     db = handle.db;
   });
   afterAll(() => handle?.close());
 
-  it('is seeded in well under a minute of work, and only into an empty database', async () => {
-    if (TARGET === 'pglite') expect(cpuSeconds).toBeLessThan(40);
+  // Seeding speed is printed by the seed CLI; tests do not time it.
+  it('is seeded only into an empty database', async () => {
     expect(await isEmpty(db)).toBe(false);
     await expect(seedDemo(db)).rejects.toThrow(/only fills an empty one/);
   });
