@@ -5,7 +5,9 @@ export const baseURL = `http://127.0.0.1:${PORT}`;
 
 export default defineConfig({
   testDir: './e2e',
-  outputDir: './test-results',
+  // One results folder per server port: Playwright empties it at the start of a run, and several
+  // checkouts' runs may share this folder.
+  outputDir: `./test-results/${PORT}`,
   workers: 1,
   fullyParallel: false,
   forbidOnly: !!process.env.CI,

@@ -1,9 +1,11 @@
+import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import {
   columnMappingSchema,
   guessMapping,
   IMPORT_FIELD_KEYS,
   parseImportInstant,
+  rowShapeErrors,
   validateImportRows,
   type ImportField,
 } from './imports';
@@ -126,6 +128,25 @@ describe('job import: every problem, by row and column', () => {
       [2, 'Done', 'A job that is on the bench has no ready time yet'],
       [3, 'parts_wait_to', 'The job is still waiting on parts, so they have not arrived'],
       [4, 'parts_wait_to', 'The job is no longer waiting on parts: when did they arrive?'],
+    ]);
+  });
+});
+
+describe('job import: the shape of each row', () => {
+  it('names rows with a stray or missing comma', () => {
+    const csv = 'a,b,c\n1,2,3\n1,2,3,4\n1,2\n"1,5",2,3\n';
+    const parsed = Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true });
+    expect(rowShapeErrors(parsed.data, parsed.meta.fields!)).toEqual([
+      {
+        row: 3,
+        message:
+          'Has 4 cells but the headings have 3: look for a stray or missing comma (quote text that contains commas)',
+      },
+      {
+        row: 4,
+        message:
+          'Has 2 cells but the headings have 3: look for a stray or missing comma (quote text that contains commas)',
+      },
     ]);
   });
 });

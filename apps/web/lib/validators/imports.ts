@@ -181,6 +181,31 @@ export interface ImportRowError {
   message: string;
 }
 
+/**
+ * Rows whose number of cells differs from the headings (a stray comma, a missing cell), as CSV
+ * parsing with headings leaves them: extra cells under `__parsed_extra`, missing ones absent.
+ */
+export function rowShapeErrors(
+  records: readonly Record<string, unknown>[],
+  headers: readonly string[],
+  rowOffset = 0,
+): ImportRowError[] {
+  const errors: ImportRowError[] = [];
+  records.forEach((record, index) => {
+    const extra = record.__parsed_extra;
+    const cells = Array.isArray(extra)
+      ? headers.length + extra.length
+      : headers.filter((h) => record[h] !== undefined).length;
+    if (cells !== headers.length) {
+      errors.push({
+        row: rowOffset + index + 2,
+        message: `Has ${cells} cells but the headings have ${headers.length}: look for a stray or missing comma (quote text that contains commas)`,
+      });
+    }
+  });
+  return errors;
+}
+
 export interface ParsedImportRow {
   row: number;
   externalRef: string;

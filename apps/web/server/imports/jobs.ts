@@ -19,6 +19,7 @@ import type { JobState } from '~/lib/labels';
 import {
   IMPORT_FIELD_KEYS,
   IMPORT_MAX_ROWS,
+  rowShapeErrors,
   validateImportRows,
   type ColumnMapping,
   type ImportField,
@@ -152,8 +153,12 @@ export async function prepareImport(
     now,
     mapping: file.mapping,
   });
+  errors.push(...rowShapeErrors(parsed.data, headers));
+  // Cell-count problems are reported above, row by row; other CSV problems (quotes) as Papa says.
   for (const e of parsed.errors) {
-    if (e.row !== undefined) errors.push({ row: e.row + 2, message: csvProblem(e) });
+    if (e.type !== 'FieldMismatch' && e.row !== undefined) {
+      errors.push({ row: e.row + 2, message: `The CSV cannot be read here: ${e.message}` });
+    }
   }
 
   // What only the database can tell.
@@ -207,12 +212,6 @@ export async function prepareImport(
     return { ok: false, batchId: batch!.id, rowCount: rows.length, errors };
   }
   return { ok: true, shop, file, digest, rows: valid, technicians };
-}
-
-function csvProblem(e: Papa.ParseError): string {
-  if (e.code === 'TooFewFields' || e.code === 'TooManyFields')
-    return `This row has a different number of columns than the headings (${e.message})`;
-  return e.message;
 }
 
 const invert = (mapping: ColumnMapping) =>

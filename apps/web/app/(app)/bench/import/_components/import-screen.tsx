@@ -15,6 +15,7 @@ import {
   IMPORT_FIELDS,
   IMPORT_MAX_BYTES,
   IMPORT_MAX_ROWS,
+  rowShapeErrors,
   validateImportRows,
   type ImportField,
   type ImportRowError,
@@ -133,8 +134,12 @@ export function ImportScreen(props: {
         rowOffset: start,
         seenRefs,
       });
-      errors.push(...result.errors);
+      errors.push(
+        ...result.errors,
+        ...rowShapeErrors(read.rows.slice(start, start + SLICE), read.headers, start),
+      );
     }
+    errors.sort((a, b) => a.row - b.row);
     setPhase({ kind: 'checked', errors, rowCount: total });
     focusResult();
   };
