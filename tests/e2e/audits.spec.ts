@@ -173,6 +173,11 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   await expect(manager.page.getByRole('region', { name: 'E-mail sent' })).toContainText(
     'auditor@saltwick.test',
   );
+  await expectAccessible(manager.page);
+  await manager.page.screenshot({ path: screenshotPath('audits-round-1280'), fullPage: true });
+  await manager.page.setViewportSize({ width: 1024, height: 768 });
+  await manager.page.screenshot({ path: screenshotPath('audits-round-1024'), fullPage: true });
+  await manager.page.setViewportSize({ width: 1280, height: 900 });
 
   // Scoring: the auditor works through the sample one job at a time.
   const auditor = await as(browser, 'auditor');
@@ -180,6 +185,11 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   await expect(
     auditor.page.getByRole('heading', { level: 1, name: 'Your audit rounds' }),
   ).toBeVisible();
+  await expectAccessible(auditor.page);
+  await auditor.page.screenshot({
+    path: screenshotPath('audits-list-auditor-1280'),
+    fullPage: true,
+  });
   await auditor.page.getByRole('link', { name: `Round #${roundId}` }).click();
   await auditor.page.getByRole('link', { name: 'Start scoring' }).click();
   await expect(auditor.page.getByRole('heading', { level: 1 })).toHaveText(
@@ -279,9 +289,15 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   await expect(card).toContainText('What was done: Drag stack retraining');
   await expectAccessible(lead.page);
   await lead.page.screenshot({ path: screenshotPath('corrective-actions-1280'), fullPage: true });
+  await lead.page.setViewportSize({ width: 1024, height: 768 });
+  await lead.page.screenshot({ path: screenshotPath('corrective-actions-1024'), fullPage: true });
   await manager.page.goto('/corrective-actions');
   const managerCard = manager.page.getByRole('article', {
     name: new RegExp(`Audit round #${roundId} rejected`),
+  });
+  await manager.page.screenshot({
+    path: screenshotPath('corrective-actions-manager-1280'),
+    fullPage: true,
   });
   await managerCard.getByRole('button', { name: 'Verify' }).click();
   await manager.page.getByLabel('Show').selectOption('all');

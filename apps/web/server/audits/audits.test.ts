@@ -16,6 +16,7 @@ import { ApiError } from '../errors';
 import type { Principal } from '../principal';
 import {
   auditSummaryByShop,
+  formVersions,
   getRound,
   getSample,
   listRounds,
@@ -473,6 +474,11 @@ describe('scoring and deciding', () => {
       last = await saveSample(auditorA, round.id, jobId, { answers: answers(), final: true });
     }
     expect(last!.round).toMatchObject({ status: 'decided', decision: 'rejected', failures: 2 });
+    const listed = (await listRounds(north)).find((r) => r.id === round.id)!;
+    expect(listed).toMatchObject({ scored: 5, sampleSize: 5, decision: 'rejected' });
+    expect((await getRound(north, round.id)).samples.map((s) => s.answered)).toEqual([
+      4, 4, 4, 4, 4,
+    ]);
     expect(last!.correctiveActionId).not.toBeNull();
 
     const [action] = await db()
@@ -535,6 +541,15 @@ describe('scoring and deciding', () => {
       ],
     });
     expect(v2.version).toBe(2);
+    const versions = await formVersions();
+    expect(versions.map((v) => [v.version, v.items])).toEqual([
+      [2, 2],
+      [1, 4],
+    ]);
+    expect(versions.find((v) => v.version === 1)!.rounds).toBe(
+      (await db().select().from(auditRounds)).length,
+    );
+    expect((await getRound(north, round.id)).form).toMatchObject({ version: 1, items: 4 });
     const after = await getSample(auditorA, round.id, round.sampledJobIds[0]!);
     expect(after.items).toEqual(before.items);
     expect(after.round.formVersion).toBe(1);

@@ -18,7 +18,7 @@ import { db } from '../db';
 import { badRequest, conflict, notFound, type FieldError } from '../errors';
 import { queueEmail } from '../mail/outbox';
 import type { Principal } from '../principal';
-import { auditRejectedEmail } from './emails';
+import { auditRejectedEmail, period } from './emails';
 import { addDays, decideLot, localToday } from './sampling';
 
 const VERDICT_VALUES: Record<AuditVerdict, VerdictValue> = {
@@ -304,7 +304,7 @@ async function openCorrectiveAction(
   });
   const dueOn = addDays(localToday(shop.timeZone, facts.now), facts.dueDays);
   const description = [
-    `${facts.failures} of ${round.sampleSize} sampled jobs fell short of the standard (accept ${round.acceptNumber}, reject ${round.rejectNumber}), so the lot of ${round.lotSize} jobs ready ${round.periodStart} to ${round.periodEnd} is rejected.`,
+    `${facts.failures} of ${round.sampleSize} sampled jobs fell short of the standard (accept ${round.acceptNumber}, reject ${round.rejectNumber}), so the lot of ${round.lotSize} jobs ready ${period(round.periodStart, round.periodEnd)} is rejected.`,
     ...lines,
     'Find the cause of each shortfall, put it right at the bench (training, checklist use, tools), and note what changed before marking this done.',
   ].join('\n');

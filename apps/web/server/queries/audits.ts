@@ -85,7 +85,7 @@ export interface RoundRow {
 }
 
 const scoredCount =
-  sql<number>`(select count(*) from ${auditSamples} where ${auditSamples.roundId} = ${auditRounds.id} and ${auditSamples.completedAt} is not null)`.mapWith(
+  sql<number>`(select count(*) from ${auditSamples} s where s.round_id = ${auditRounds}.id and s.completed_at is not null)`.mapWith(
     Number,
   );
 
@@ -239,7 +239,7 @@ async function findRound(principal: Principal, id: number) {
       plan: auditRounds.plan,
       formId: auditRounds.formId,
       plannedById: auditRounds.plannedById,
-      plannedByName: sql<string>`(select pb.name from ${users} pb where pb.id = ${auditRounds.plannedById})`,
+      plannedByName: sql<string>`(select pb.name from ${users} pb where pb.id = ${auditRounds}.planned_by_id)`,
     })
     .from(auditRounds)
     .innerJoin(shops, eq(shops.id, auditRounds.shopId))
@@ -260,7 +260,7 @@ export async function getRound(principal: Principal, id: number): Promise<RoundD
         version: auditForms.version,
         title: auditForms.title,
         items:
-          sql<number>`(select count(*) from ${auditFormItems} where ${auditFormItems.formId} = ${auditForms.id})`.mapWith(
+          sql<number>`(select count(*) from ${auditFormItems} i where i.form_id = ${auditForms}.id)`.mapWith(
             Number,
           ),
       })
@@ -279,7 +279,7 @@ export async function getRound(principal: Principal, id: number): Promise<RoundD
         startedAt: auditSamples.startedAt,
         completedAt: auditSamples.completedAt,
         answered:
-          sql<number>`(select count(*) from ${auditAnswers} where ${auditAnswers.sampleId} = ${auditSamples.id})`.mapWith(
+          sql<number>`(select count(*) from ${auditAnswers} a where a.sample_id = ${auditSamples}.id)`.mapWith(
             Number,
           ),
       })
@@ -830,11 +830,11 @@ export async function formVersions() {
       title: auditForms.title,
       publishedAt: auditForms.publishedAt,
       items:
-        sql<number>`(select count(*) from ${auditFormItems} where ${auditFormItems.formId} = ${auditForms.id})`.mapWith(
+        sql<number>`(select count(*) from ${auditFormItems} i where i.form_id = ${auditForms}.id)`.mapWith(
           Number,
         ),
       rounds:
-        sql<number>`(select count(*) from ${auditRounds} where ${auditRounds.formId} = ${auditForms.id})`.mapWith(
+        sql<number>`(select count(*) from ${auditRounds} r where r.form_id = ${auditForms}.id)`.mapWith(
           Number,
         ),
     })

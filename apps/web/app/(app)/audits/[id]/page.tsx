@@ -14,7 +14,13 @@ import {
   SeverityBadge,
   VerdictBadge,
 } from '../_components/badges';
-import { formatInstant, formatLocalDate, formatPeriod, formatScore } from '../_components/format';
+import {
+  formatInstant,
+  formatLocalDate,
+  formatPeriod,
+  formatScore,
+  formLabel,
+} from '../_components/format';
 import { levelLabel } from '../_components/labels';
 import { RedrawCheck } from '../_components/redraw-check';
 
@@ -133,7 +139,7 @@ export default async function RoundPage({ params }: { params: Promise<{ id: stri
             <dd>{plan.table ? `MIL-STD-105E Table ${plan.table}` : '—'}</dd>
             <dt className="text-slate-600">Audit form</dt>
             <dd>
-              {round.form.title} (version {round.form.version}, {round.form.items} items)
+              {formLabel(round.form.title, round.form.version)}, {round.form.items} items
             </dd>
             <dt className="text-slate-600">Planned</dt>
             <dd>

@@ -15,9 +15,22 @@ export function formatLocalDate(date: string, withWeekday = false) {
   });
 }
 
+/** "1–30 Nov 2026", "28 Oct – 3 Nov 2026", "29 Dec 2026 – 4 Jan 2027". */
 export function formatPeriod(from: string, to: string) {
-  return from === to ? formatLocalDate(from) : `${formatLocalDate(from)} – ${formatLocalDate(to)}`;
+  if (from === to) return formatLocalDate(from);
+  const [fy, fm] = from.split('-');
+  const [ty, tm] = to.split('-');
+  const day = (d: string) => String(Number(d.slice(8)));
+  const month = (d: string) =>
+    new Date(`${d}T12:00:00Z`).toLocaleDateString('en-GB', { month: 'short', timeZone: 'UTC' });
+  if (fy === ty && fm === tm) return `${day(from)}–${day(to)} ${month(to)} ${ty}`;
+  if (fy === ty) return `${day(from)} ${month(from)} – ${day(to)} ${month(to)} ${ty}`;
+  return `${formatLocalDate(from)} – ${formatLocalDate(to)}`;
 }
+
+/** "Job audit form, version 2" as titled, or with the version added when the title lacks it. */
+export const formLabel = (title: string, version: number) =>
+  /version\s+\d+/i.test(title) ? title : `${title} (version ${version})`;
 
 /** An instant (ISO string) in the shop's zone. */
 export const formatInstant = (iso: string, timeZone: string, pattern = 'd MMM yyyy, HH:mm') =>

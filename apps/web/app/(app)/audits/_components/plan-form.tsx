@@ -14,7 +14,7 @@ import {
 } from '~/lib/validators/audits';
 import type { PlannedRound } from '~/server/audits/plan';
 import { SeverityBadge } from './badges';
-import { formatLocalDate, formatPeriod } from './format';
+import { formatLocalDate, formatPeriod, formLabel } from './format';
 import { DECISION_LABELS, levelLabel } from './labels';
 
 interface Props {
@@ -200,7 +200,7 @@ export function PlanForm({ shops, auditors, defaults, form }: Props) {
           </div>
           {form && (
             <p className="text-sm text-slate-600">
-              Scored against {form.title} (version {form.version}).
+              Scored against {formLabel(form.title, form.version)}.
             </p>
           )}
         </div>
@@ -224,7 +224,7 @@ export function PlanForm({ shops, auditors, defaults, form }: Props) {
             <div className="space-y-5">
               <p className="text-lg">
                 <strong className="num text-2xl">{data.lotSize}</strong>{' '}
-                {data.lotSize === 1 ? 'job' : 'jobs'} became ready at {data.shop.name} from{' '}
+                {data.lotSize === 1 ? 'job' : 'jobs'} became ready at {data.shop.name},{' '}
                 {formatPeriod(data.from, data.to)}.
               </p>
               <div>
@@ -259,12 +259,12 @@ export function PlanForm({ shops, auditors, defaults, form }: Props) {
                   <Figure
                     label="Accept (Ac)"
                     value={String(data.plan.accept)}
-                    hint="Accept with this many failures or fewer"
+                    hint={`Accept with ${data.plan.accept} or fewer failures`}
                   />
                   <Figure
                     label="Reject (Re)"
                     value={String(data.plan.reject)}
-                    hint="Reject at this many failures"
+                    hint={`Reject at ${data.plan.reject} or more`}
                   />
                 </dl>
               )}

@@ -172,12 +172,17 @@ export function ScoreForm({ roundId, jobId }: { roundId: number; jobId: number }
         <p className="text-sm text-slate-600">
           {answeredCount} of {items.length} answered · pass mark {data.passMark}
         </p>
-        <p className="mt-1 flex flex-wrap items-center gap-2">
-          <span className="text-3xl font-semibold tabular-nums">
-            {formatScore(Math.round(live.score * 10) / 10)}
-          </span>
-          <VerdictBadge verdict={VERDICTS[live.verdict]!} />
-        </p>
+        {answeredCount === 0 ? (
+          <p className="mt-1 text-slate-700">The score appears as you answer.</p>
+        ) : (
+          <p className="mt-1 flex flex-wrap items-center gap-2">
+            <span className="text-3xl font-semibold tabular-nums">
+              {formatScore(Math.round(live.score * 10) / 10)}
+            </span>
+            <VerdictBadge verdict={VERDICTS[live.verdict]!} />
+            {answeredCount < items.length && <span className="text-sm text-slate-600">so far</span>}
+          </p>
+        )}
       </div>
       <ol className="space-y-5">
         {items.map((item, index) => {
@@ -203,11 +208,11 @@ export function ScoreForm({ roundId, jobId }: { roundId: number; jobId: number }
                   )}
                 </p>
                 {item.guidance && <p className="mt-1 text-sm text-slate-700">{item.guidance}</p>}
-                <div className="mt-2 flex flex-wrap gap-2">
+                <div className="mt-2 flex flex-wrap gap-1.5">
                   {ANSWER_RESULTS.map((result) => (
                     <label
                       key={result}
-                      className="inline-flex min-h-11 cursor-pointer items-center gap-2 rounded-md border border-slate-400 px-3 has-checked:border-sea-700 has-checked:bg-sea-50 has-checked:font-semibold"
+                      className="inline-flex min-h-11 cursor-pointer items-center gap-2 rounded-md border border-slate-400 px-2.5 has-checked:border-sea-700 has-checked:bg-sea-50 has-checked:font-semibold"
                     >
                       <input
                         type="radio"

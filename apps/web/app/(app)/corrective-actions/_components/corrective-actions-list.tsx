@@ -77,7 +77,7 @@ export function CorrectiveActionsList() {
           </select>
         </div>
         <p className="pb-2 text-slate-600" aria-live="polite">
-          {shown.length} of {all.length} actions
+          Showing {shown.length} of {all.length}
         </p>
       </div>
       {shown.length === 0 ? (

@@ -13,6 +13,7 @@ import {
   formatLocalDate,
   formatPeriod,
   formatScore,
+  formLabel,
 } from '../../_components/format';
 import {
   ANSWER_LABELS,
@@ -42,6 +43,7 @@ function Section(props: { title: string; id: string; children: ReactNode }) {
 }
 
 const th = 'py-1.5 pr-4 text-left font-medium';
+const thNum = 'num py-1.5 pr-4 font-medium';
 
 export default async function ReportPage({ params }: { params: Promise<{ id: string }> }) {
   const principal = await requirePagePrincipal();
@@ -83,8 +85,8 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           Round #{round.id} · {round.shop.name}
         </h1>
         <p className="mt-1 text-lg">
-          Jobs ready {formatPeriod(round.periodStart, round.periodEnd)} · {round.form.title}{' '}
-          (version {round.form.version})
+          Jobs ready {formatPeriod(round.periodStart, round.periodEnd)} ·{' '}
+          {formLabel(round.form.title, round.form.version)}
         </p>
       </header>
 
@@ -159,13 +161,13 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           <caption className="sr-only">Score and verdict of each sampled job</caption>
           <thead>
             <tr className="border-b border-slate-400 text-sm">
-              <th scope="col" className={`${th} num`}>
+              <th scope="col" className={thNum}>
                 #
               </th>
               <th scope="col" className={th}>
                 Job
               </th>
-              <th scope="col" className={`${th} num`}>
+              <th scope="col" className={thNum}>
                 Score
               </th>
               <th scope="col" className={th}>
@@ -230,16 +232,16 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
               <th scope="col" className={th}>
                 Item
               </th>
-              <th scope="col" className={`${th} num`}>
+              <th scope="col" className={thNum}>
                 Weight
               </th>
-              <th scope="col" className={`${th} num`}>
+              <th scope="col" className={thNum}>
                 {ANSWER_LABELS.pass}
               </th>
-              <th scope="col" className={`${th} num`}>
+              <th scope="col" className={thNum}>
                 {ANSWER_LABELS.fail}
               </th>
-              <th scope="col" className={`${th} num`}>
+              <th scope="col" className={thNum}>
                 {ANSWER_LABELS.not_applicable}
               </th>
             </tr>

@@ -59,7 +59,7 @@ export default async function SamplePage({
         title={`Job #${jobId}`}
         lead={`Sample ${view.position} of ${round.sampleSize} in round #${id} · ${round.shop.name} · audit form version ${round.formVersion}. Times in ${round.shop.timeZone.replace('_', ' ')}.`}
       />
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_25rem]">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_27rem]">
         <Panel title="Job record" description="Read-only: the audit cannot change the job.">
           <JobRecordView job={view.job} timeZone={round.shop.timeZone} />
         </Panel>
