@@ -25,10 +25,13 @@ async function marramJob(browser: Browser, state: string) {
   return jobs[0].id;
 }
 
+/** The whole page and what the first screen shows, at desktop and tablet sizes. */
 async function shoot(page: Page, name: string) {
   await page.screenshot({ path: screenshotPath(`${name}-1280`), fullPage: true });
+  await page.screenshot({ path: screenshotPath(`${name}-1280-screen`) });
   await page.setViewportSize(TABLET);
   await page.screenshot({ path: screenshotPath(`${name}-1024`), fullPage: true });
+  await page.screenshot({ path: screenshotPath(`${name}-1024-screen`) });
   await page.setViewportSize({ width: 1280, height: 900 });
 }
 
@@ -170,22 +173,26 @@ test.describe('technician at Marram Point', () => {
     await expect(page).toHaveURL(/state=waiting_parts/);
     await expect(page).not.toHaveURL(/page=2/);
     await expect(rows.first()).toContainText('Waiting on parts');
-    const states = await table.locator('tbody tr td:nth-child(4)').allTextContents();
+    const states = await table.locator('tbody tr td:nth-child(3)').allTextContents();
     expect(states.every((s) => s === 'Waiting on parts')).toBe(true);
 
-    await page.getByRole('button', { name: /Days in state/ }).click();
+    await page.getByRole('button', { name: /In state/ }).click();
     await expect(page).toHaveURL(/sort=stateChangedAt&?/);
-    await expect(table.getByRole('columnheader', { name: /Days in state/ })).toHaveAttribute(
+    await expect(table.getByRole('columnheader', { name: /In state/ })).toHaveAttribute(
       'aria-sort',
       'descending',
     );
-    const days = (await table.locator('tbody tr td:nth-child(5)').allTextContents()).map(Number);
+    const days = (await table.locator('tbody tr td:nth-child(4)').allTextContents()).map((t) =>
+      parseInt(t, 10),
+    );
     expect(days).toEqual([...days].sort((a, b) => b - a));
 
-    await page.getByLabel('In its state longer than (days)').fill('3');
+    await page.getByLabel('In state more than (days)').fill('3');
     await expect(page).toHaveURL(/waitingDays=3/);
     await expect(rows.first()).toBeVisible();
-    const waited = (await table.locator('tbody tr td:nth-child(5)').allTextContents()).map(Number);
+    const waited = (await table.locator('tbody tr td:nth-child(4)').allTextContents()).map((t) =>
+      parseInt(t, 10),
+    );
     expect(waited.every((d) => d >= 3)).toBe(true);
 
     await page.getByRole('button', { name: 'Clear filters' }).click();

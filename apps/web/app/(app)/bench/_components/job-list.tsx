@@ -106,6 +106,9 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
             >
               #{row.original.id}
             </Link>
+            <span className="block text-sm whitespace-nowrap text-slate-700">
+              {SERVICE_LABELS[row.original.serviceType]}
+            </span>
             {multiShop && (
               <span className="block text-sm text-slate-600">{row.original.shopName}</span>
             )}
@@ -123,20 +126,19 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
         ),
       },
       {
-        id: 'service',
-        header: 'Service',
-        cell: ({ row }) => SERVICE_LABELS[row.original.serviceType],
-      },
-      {
         id: 'state',
         header: 'State',
         cell: ({ row }) => <StateBadge state={row.original.state} />,
       },
       {
         id: 'daysInState',
-        header: 'Days in state',
+        header: 'In state',
         meta: { numeric: true },
-        cell: ({ row }) => (row.original.daysInState === null ? '–' : row.original.daysInState),
+        cell: ({ row }) => {
+          const d = row.original.daysInState;
+          if (d === null) return <span aria-label="Not open">–</span>;
+          return <span className="whitespace-nowrap">{d === 1 ? '1 day' : `${d} days`}</span>;
+        },
       },
       {
         id: 'technician',
@@ -318,9 +320,9 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
               ))}
             </div>
           </fieldset>
-          <div className="w-52">
+          <div className="w-48">
             <label htmlFor="job-waiting" className={labelClass}>
-              In its state longer than (days)
+              In state more than (days)
             </label>
             <input
               id="job-waiting"
@@ -401,7 +403,7 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
       </div>
 
       <div className="overflow-x-auto">
-        <table className="w-full min-w-[58rem] text-left" aria-busy={isFetching}>
+        <table className="w-full min-w-[56rem] text-left" aria-busy={isFetching}>
           <caption className="sr-only">Jobs; select a column heading to sort by it</caption>
           <thead>
             {table.getHeaderGroups().map((group) => (
@@ -421,7 +423,7 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
                       key={header.id}
                       scope="col"
                       aria-sort={sorted ? (sorted.desc ? 'descending' : 'ascending') : undefined}
-                      className={`px-3 py-1 font-semibold first:pl-5 last:pr-5 ${numeric ? 'num' : ''}`}
+                      className={`px-2 py-1 font-semibold first:pl-5 last:pr-5 ${numeric ? 'num' : ''}`}
                     >
                       {sortable ? (
                         <button
@@ -452,7 +454,7 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
                   return (
                     <td
                       key={cell.id}
-                      className={`px-3 py-2.5 first:pl-5 last:pr-5 ${numeric ? 'num' : ''}`}
+                      className={`px-2 py-2.5 first:pl-5 last:pr-5 ${numeric ? 'num' : ''}`}
                     >
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>

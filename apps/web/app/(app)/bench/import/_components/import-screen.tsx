@@ -58,6 +58,9 @@ export function ImportScreen(props: {
 
   const busy = ['reading', 'checking', 'sending', 'storing'].includes(phase.kind);
   const missingRequired = IMPORT_FIELDS.filter((f) => f.required && !mapping[f.key]);
+  const matchedCount = IMPORT_FIELDS.filter((f) => mapping[f.key]).length;
+  // The matching stays folded away when the headings already name every needed field.
+  const [showMapping, setShowMapping] = useState(false);
 
   const focusResult = () => setTimeout(() => resultRef.current?.focus(), 0);
 
@@ -101,8 +104,10 @@ export function ImportScreen(props: {
             message: `${file.name} has ${formatCount(rows.length)} rows; import at most ${formatCount(IMPORT_MAX_ROWS)} at a time.`,
           });
         }
+        const guessed = guessMapping(headers);
         setRead({ file, headers, rows });
-        setMapping(guessMapping(headers));
+        setMapping(guessed);
+        setShowMapping(IMPORT_FIELDS.some((f) => f.required && !guessed[f.key]));
         setPhase({ kind: 'idle' });
       },
       error: (error) =>
@@ -264,55 +269,65 @@ export function ImportScreen(props: {
 
       {read && (
         <Step number={3} title="Match the columns">
-          <p className="mb-4 text-slate-700">
+          <p className="text-slate-700">
             For each Reelwright field, pick the column of your file that holds it. Fields marked{' '}
             <span className="text-brick-700">*</span> are needed.
           </p>
-          <div className="grid gap-x-6 gap-y-3 sm:grid-cols-2 xl:grid-cols-3">
-            {IMPORT_FIELDS.map((f) => (
-              <div key={f.key}>
-                <label
-                  htmlFor={`${id}-map-${f.key}`}
-                  className="block text-sm font-medium text-slate-800"
-                >
-                  {f.label}
-                  {f.required && (
-                    <>
-                      <span aria-hidden="true" className="ml-1 text-brick-700">
-                        *
-                      </span>
-                      <span className="sr-only"> (required)</span>
-                    </>
-                  )}
-                </label>
-                <select
-                  id={`${id}-map-${f.key}`}
-                  value={mapping[f.key] ?? ''}
-                  disabled={busy}
-                  onChange={(e) => {
-                    const header = e.target.value;
-                    setMapping((m) => {
-                      const next = { ...m };
-                      if (header) next[f.key] = header;
-                      else delete next[f.key];
-                      return next;
-                    });
-                    if (phase.kind === 'checked') setPhase({ kind: 'idle' });
-                  }}
-                  className={`mt-1 min-h-11 w-full rounded-md border bg-white px-2 ${
-                    f.required && !mapping[f.key] ? 'border-brick-600' : 'border-slate-400'
-                  }`}
-                >
-                  <option value="">— not in the file —</option>
-                  {read.headers.map((h) => (
-                    <option key={h} value={h}>
-                      {h}
-                    </option>
-                  ))}
-                </select>
-              </div>
-            ))}
-          </div>
+          <details
+            open={showMapping}
+            onToggle={(e) => setShowMapping(e.currentTarget.open)}
+            className="mt-3"
+          >
+            <summary className="min-h-11 cursor-pointer py-2.5 font-medium text-sea-800">
+              {matchedCount} of {IMPORT_FIELDS.length} fields matched from the file’s headings
+              {missingRequired.length ? '' : ' — every needed one'}
+            </summary>
+            <div className="mt-2 grid gap-x-6 gap-y-3 sm:grid-cols-2 xl:grid-cols-3">
+              {IMPORT_FIELDS.map((f) => (
+                <div key={f.key}>
+                  <label
+                    htmlFor={`${id}-map-${f.key}`}
+                    className="block text-sm font-medium text-slate-800"
+                  >
+                    {f.label}
+                    {f.required && (
+                      <>
+                        <span aria-hidden="true" className="ml-1 text-brick-700">
+                          *
+                        </span>
+                        <span className="sr-only"> (required)</span>
+                      </>
+                    )}
+                  </label>
+                  <select
+                    id={`${id}-map-${f.key}`}
+                    value={mapping[f.key] ?? ''}
+                    disabled={busy}
+                    onChange={(e) => {
+                      const header = e.target.value;
+                      setMapping((m) => {
+                        const next = { ...m };
+                        if (header) next[f.key] = header;
+                        else delete next[f.key];
+                        return next;
+                      });
+                      if (phase.kind === 'checked') setPhase({ kind: 'idle' });
+                    }}
+                    className={`mt-1 min-h-11 w-full rounded-md border bg-white px-2 ${
+                      f.required && !mapping[f.key] ? 'border-brick-600' : 'border-slate-400'
+                    }`}
+                  >
+                    <option value="">— not in the file —</option>
+                    {read.headers.map((h) => (
+                      <option key={h} value={h}>
+                        {h}
+                      </option>
+                    ))}
+                  </select>
+                </div>
+              ))}
+            </div>
+          </details>
         </Step>
       )}
 
@@ -323,7 +338,9 @@ export function ImportScreen(props: {
               Still to match: {missingRequired.map((f) => f.label).join(', ')}.
             </p>
           )}
-          <div className="flex flex-wrap items-center gap-3">
+          <div
+            className={`flex flex-wrap items-center gap-3 ${phase.kind === 'finished' ? 'hidden' : ''}`}
+          >
             <button
               type="button"
               onClick={check}

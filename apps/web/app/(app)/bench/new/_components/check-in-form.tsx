@@ -83,6 +83,23 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
   const [errors, setErrors] = useState<Errors>({});
   const [formError, setFormError] = useState<string | null>(null);
   const summaryRef = useRef<HTMLDivElement>(null);
+  const [attempt, setAttempt] = useState(0);
+  // A field's message goes as soon as it is edited; the rest stay until the next submit.
+  const touch = (...paths: string[]) =>
+    setErrors((e) => {
+      if (!paths.some((p) => p in e)) return e;
+      const rest = { ...e };
+      for (const p of paths) delete rest[p];
+      return rest;
+    });
+  const editCustomer = (key: keyof typeof blankCustomer, value: string | boolean) => {
+    setCustomer((c) => ({ ...c, [key]: value }));
+    touch(`customer.${key}`);
+  };
+  const editReel = (key: keyof typeof blankReel, value: string) => {
+    setReel((r) => ({ ...r, [key]: value }));
+    touch(`reel.${key}`);
+  };
 
   useEffect(() => {
     const timer = setTimeout(() => setDebounced(query.trim()), 250);
@@ -98,11 +115,12 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
       router.push(`/bench/jobs/${job.id}`);
     },
     onError: (error) => {
+      setAttempt((n) => n + 1);
       if (error instanceof ProblemError && error.problem.errors?.length) {
         const next: Errors = {};
         for (const e of error.problem.errors) next[e.field.replace(/^body\./, '')] ??= e.message;
         setErrors(next);
-        setFormError(error.problem.detail ?? 'Some fields need attention.');
+        setFormError(null);
       } else {
         setFormError(error.message);
       }
@@ -110,11 +128,13 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
   });
 
   const hasErrors = Object.keys(errors).length > 0 || formError !== null;
+  // Each refused submit moves focus to the summary, so a screen reader hears what to fix.
   useEffect(() => {
-    if (hasErrors) summaryRef.current?.focus();
-  }, [hasErrors, errors]);
+    if (attempt > 0) summaryRef.current?.focus();
+  }, [attempt]);
 
   function startNewCustomer() {
+    touch('customer');
     const q = query.trim();
     setChosen('new');
     setReelChoice('new');
@@ -127,12 +147,14 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
   }
 
   function pickCustomer(c: CustomerMatchJson) {
+    touch('customer');
     setChosen(c);
     setReelChoice(c.reels.length === 1 ? c.reels[0]!.id : c.reels.length === 0 ? 'new' : null);
   }
 
   function onSubmit(event: FormEvent) {
     event.preventDefault();
+    setAttempt((n) => n + 1);
     const next: Errors = {};
     let customerBody: unknown;
     if (chosen === null) next.customer = 'Find the customer, or add a new one';
@@ -177,11 +199,8 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
       next.promisedOn ??= 'The promised date cannot be in the past';
 
     setErrors(next);
-    if (Object.keys(next).length > 0 || !rest.success) {
-      setFormError('Some fields need attention.');
-      return;
-    }
     setFormError(null);
+    if (Object.keys(next).length > 0 || !rest.success) return;
     submit.mutate({ customer: customerBody, reel: reelBody, ...rest.data });
   }
 
@@ -203,7 +222,9 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
           role="alert"
           className="rounded-lg border border-brick-200 bg-brick-50 px-5 py-4 text-brick-800"
         >
-          <p className="font-semibold">{formError ?? 'Some fields need attention.'}</p>
+          <p className="font-semibold">
+            {Object.keys(errors).length > 0 ? 'Some fields need attention.' : formError}
+          </p>
           {Object.keys(errors).length > 0 && (
             <ul className="mt-2 list-disc space-y-1 pl-5">
               {Object.entries(errors).map(([path, message]) => (
@@ -248,7 +269,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 path="customer.name"
                 label="Name"
                 value={customer.name}
-                onChange={(v) => setCustomer({ ...customer, name: v })}
+                onChange={(v) => editCustomer('name', v)}
                 error={err('customer.name')}
                 autoComplete="off"
               />
@@ -258,7 +279,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 type="tel"
                 inputMode="tel"
                 value={customer.phone}
-                onChange={(v) => setCustomer({ ...customer, phone: v })}
+                onChange={(v) => editCustomer('phone', v)}
                 error={err('customer.phone')}
                 autoComplete="off"
               />
@@ -268,7 +289,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 type="email"
                 inputMode="email"
                 value={customer.email}
-                onChange={(v) => setCustomer({ ...customer, email: v })}
+                onChange={(v) => editCustomer('email', v)}
                 error={err('customer.email')}
                 hint="We send the ready-for-pickup message here."
                 autoComplete="off"
@@ -278,7 +299,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
               <input
                 type="checkbox"
                 checked={customer.reminderConsent}
-                onChange={(e) => setCustomer({ ...customer, reminderConsent: e.target.checked })}
+                onChange={(e) => editCustomer('reminderConsent', e.target.checked)}
                 className="size-6 accent-sea-700"
               />
               Agrees to pre-season service reminders by e-mail
@@ -356,7 +377,10 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                     key={r.id}
                     name="reel"
                     checked={reelChoice === r.id}
-                    onChange={() => setReelChoice(r.id)}
+                    onChange={() => {
+                      setReelChoice(r.id);
+                      touch('reel');
+                    }}
                   >
                     <span className="block font-semibold">
                       {r.maker} {r.model} {r.size}
@@ -371,7 +395,10 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 <Choice
                   name="reel"
                   checked={reelChoice === 'new'}
-                  onChange={() => setReelChoice('new')}
+                  onChange={() => {
+                    setReelChoice('new');
+                    touch('reel');
+                  }}
                 >
                   <span className="block font-semibold">Another reel</span>
                   <span className="block text-sm text-slate-700">Add it below</span>
@@ -389,7 +416,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 <select
                   id={fieldId('reel.kind')}
                   value={reel.kind}
-                  onChange={(e) => setReel({ ...reel, kind: e.target.value })}
+                  onChange={(e) => editReel('kind', e.target.value)}
                   aria-invalid={err('reel.kind') ? true : undefined}
                   aria-describedby={described('reel.kind')}
                   className={inputClass}
@@ -407,21 +434,21 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 path="reel.maker"
                 label="Maker"
                 value={reel.maker}
-                onChange={(v) => setReel({ ...reel, maker: v })}
+                onChange={(v) => editReel('maker', v)}
                 error={err('reel.maker')}
               />
               <TextField
                 path="reel.model"
                 label="Model"
                 value={reel.model}
-                onChange={(v) => setReel({ ...reel, model: v })}
+                onChange={(v) => editReel('model', v)}
                 error={err('reel.model')}
               />
               <TextField
                 path="reel.size"
                 label="Size (optional)"
                 value={reel.size}
-                onChange={(v) => setReel({ ...reel, size: v })}
+                onChange={(v) => editReel('size', v)}
                 error={err('reel.size')}
                 hint="As printed, e.g. 4000 or 30W"
               />
@@ -430,14 +457,14 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 label="Bearings (optional)"
                 inputMode="numeric"
                 value={reel.bearingCount}
-                onChange={(v) => setReel({ ...reel, bearingCount: v })}
+                onChange={(v) => editReel('bearingCount', v)}
                 error={err('reel.bearingCount')}
               />
               <TextField
                 path="reel.gearRatio"
                 label="Gear ratio (optional)"
                 value={reel.gearRatio}
-                onChange={(v) => setReel({ ...reel, gearRatio: v })}
+                onChange={(v) => editReel('gearRatio', v)}
                 error={err('reel.gearRatio')}
                 hint="As printed, e.g. 6.2:1"
               />
@@ -449,7 +476,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                       key={u}
                       name="useProfile"
                       checked={reel.useProfile === u}
-                      onChange={() => setReel({ ...reel, useProfile: u })}
+                      onChange={() => editReel('useProfile', u)}
                     >
                       {USE_LABELS[u]}
                     </Choice>
@@ -464,7 +491,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                       key={w}
                       name="water"
                       checked={reel.water === w}
-                      onChange={() => setReel({ ...reel, water: w })}
+                      onChange={() => editReel('water', w)}
                     >
                       {WATER_LABELS[w]}
                     </Choice>
@@ -476,12 +503,15 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
         </Section>
       )}
 
-      <Section title={chosen !== null ? '3. Service' : '2. Service'} id="ci-section-service">
+      <Section
+        title={chosen !== null ? '3. Service and pickup' : '2. Service and pickup'}
+        id="ci-section-service"
+      >
         <fieldset
           aria-describedby={err('serviceType') ? `${fieldId('serviceType')}-error` : undefined}
         >
           <legend id={fieldId('serviceType')} tabIndex={-1} className="font-medium text-slate-800">
-            Service
+            Which service?
           </legend>
           <div className="mt-2 grid gap-2 sm:grid-cols-2 lg:grid-cols-4">
             {SERVICE_TYPES.map((s) => (
@@ -489,7 +519,10 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                 key={s}
                 name="serviceType"
                 checked={serviceType === s}
-                onChange={() => setServiceType(s)}
+                onChange={() => {
+                  setServiceType(s);
+                  touch('serviceType');
+                }}
               >
                 <span className="block font-semibold">{SERVICE_LABELS[s]}</span>
                 <span className="block text-sm text-slate-700">{SERVICE_HINTS[s]}</span>
@@ -503,14 +536,20 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
             path="complaint"
             label="What the customer says"
             value={complaint}
-            onChange={setComplaint}
+            onChange={(v) => {
+              setComplaint(v);
+              touch('complaint');
+            }}
             error={err('complaint')}
           />
           <TextArea
             path="condition"
             label="Condition at check-in"
             value={condition}
-            onChange={setCondition}
+            onChange={(v) => {
+              setCondition(v);
+              touch('condition');
+            }}
             error={err('condition')}
             hint="Scratches, salt crust, missing parts: anything the customer should know we saw."
           />
@@ -543,7 +582,10 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
             type="date"
             value={promisedOn}
             min={suggestion.today}
-            onChange={setPromisedOn}
+            onChange={(v) => {
+              setPromisedOn(v);
+              touch('promisedOn');
+            }}
             error={err('promisedOn')}
             hint={suggestionText(suggestion)}
           />

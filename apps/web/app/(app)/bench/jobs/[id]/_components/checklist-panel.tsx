@@ -1,10 +1,9 @@
 'use client';
 
-import { useQueryClient } from '@tanstack/react-query';
-import { useRef } from 'react';
+import { useRef, useState } from 'react';
 import { Panel } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
-import { jobKeys, sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
 import { STEP_GROUP_LABELS } from '../../../_components/format';
 import { ErrorNote } from './error-note';
 import { useJobMutation } from './use-job-mutation';
@@ -19,45 +18,31 @@ const DEFAULT_SAFETY =
  * after another so the last tick always wins.
  */
 export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite: boolean }) {
-  const queryClient = useQueryClient();
   const { checklist } = job;
   const steps = checklist.groups.flatMap((g) => g.steps);
   const latest = useRef(0);
+  // What the technician just ticked shows at once; the server's answer to the last tick replaces it.
+  const [shown, setShown] = useState<number[] | null>(null);
   const save = useJobMutation(
     job.id,
     ({ stepIds }: { stepIds: number[]; seq: number }) =>
       sendJson<JobDetailJson>('PUT', `/api/jobs/${job.id}/checklist`, { stepIds }),
-    {
-      scope: 'checklist',
-      // Quick ticks queue up; only the answer to the last one replaces what is on screen.
-      isLatest: ({ seq }) => seq === latest.current,
-      onMutate: ({ stepIds }) => {
-        // Show the tick straight away; the answer from the server replaces it.
-        const ticked = new Set(stepIds);
-        queryClient.setQueryData<JobDetailJson>(jobKeys.detail(job.id), (old) =>
-          old
-            ? {
-                ...old,
-                checklist: {
-                  ...old.checklist,
-                  groups: old.checklist.groups.map((g) => ({
-                    ...g,
-                    steps: g.steps.map((s) => ({ ...s, ticked: ticked.has(s.id) })),
-                  })),
-                },
-              }
-            : old,
-        );
-      },
-    },
+    // Quick ticks queue up; only the answer to the last one replaces what is on screen.
+    { scope: 'checklist', isLatest: ({ seq }) => seq === latest.current },
   );
+  const isTicked = (step: { id: number; ticked: boolean }) =>
+    shown ? shown.includes(step.id) : step.ticked;
   const toggle = (stepId: number, on: boolean) => {
-    const ids = steps.filter((s) => (s.id === stepId ? on : s.ticked)).map((s) => s.id);
+    const ids = steps.filter((s) => (s.id === stepId ? on : isTicked(s))).map((s) => s.id);
+    setShown(ids);
     latest.current += 1;
-    save.mutate({ stepIds: ids, seq: latest.current });
+    save.mutate(
+      { stepIds: ids, seq: latest.current },
+      { onSettled: (_job, _error, { seq }) => seq === latest.current && setShown(null) },
+    );
   };
-  const ticked = steps.filter((s) => s.ticked).length;
-  const requiredLeft = steps.filter((s) => s.required && !s.ticked).length;
+  const ticked = steps.filter(isTicked).length;
+  const requiredLeft = steps.filter((s) => s.required && !isTicked(s)).length;
 
   if (!checklist.standard)
     return (
@@ -91,7 +76,7 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
           {job.incompleteChecklistReason}
         </p>
       )}
-      <div className="space-y-6">
+      <div className="@container space-y-6">
         {checklist.groups.map((group) => (
           <fieldset key={group.group}>
             <legend className="text-base font-semibold tracking-wide text-slate-700 uppercase">
@@ -101,14 +86,14 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
               {group.steps.map((step) => (
                 <li
                   key={step.id}
-                  className="gap-4 px-3 py-2 md:grid md:grid-cols-[minmax(0,1fr)_15rem]"
+                  className="gap-4 px-3 py-2 @xl:grid @xl:grid-cols-[minmax(0,1fr)_17rem]"
                 >
                   <div className="flex items-start gap-3">
                     {canWrite ? (
                       <input
                         id={`step-${step.id}`}
                         type="checkbox"
-                        checked={step.ticked}
+                        checked={isTicked(step)}
                         onChange={(e) => toggle(step.id, e.target.checked)}
                         aria-describedby={
                           step.safetyCaution ? `step-${step.id}-caution` : undefined
@@ -162,7 +147,7 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
                   {step.safetyCaution && (
                     <p
                       id={`step-${step.id}-caution`}
-                      className="mt-1 mb-1 ml-10 rounded-md border-l-4 border-amber-500 bg-amber-50 px-3 py-2 text-amber-950 md:mt-1 md:ml-0 md:self-start"
+                      className="mt-1 mb-1 ml-10 rounded-md border-l-4 border-amber-500 bg-amber-50 px-3 py-2 text-amber-950 @xl:mt-1 @xl:ml-0 @xl:self-start"
                     >
                       <span className="font-semibold">Caution: </span>
                       {step.safetyCaution}

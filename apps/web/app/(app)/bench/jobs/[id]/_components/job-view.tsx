@@ -30,15 +30,15 @@ export function JobView({ id, canWrite }: { id: number; canWrite: boolean }) {
   return (
     <div className="space-y-6">
       <JobHeader job={job} canWrite={canWrite} />
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,1.7fr)_minmax(0,1fr)]">
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1.6fr)_minmax(0,1fr)]">
         <div className="space-y-6">
           <ChecklistPanel job={job} canWrite={writable} />
-          <PartsPanel job={job} canWrite={writable} />
-          <NotesPanel job={job} canWrite={writable} />
         </div>
         <div className="space-y-6">
           <BenchTimePanel job={job} canWrite={writable} />
+          <PartsPanel job={job} canWrite={writable} />
           <MoneyPanel job={job} canWrite={writable} />
+          <NotesPanel job={job} canWrite={writable} />
           <TimelinePanel job={job} />
           <PhotosSlot jobId={job.id} canUpload={writable} />
         </div>

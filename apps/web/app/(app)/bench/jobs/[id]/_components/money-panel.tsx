@@ -52,13 +52,13 @@ export function MoneyPanel({ job, canWrite }: { job: JobDetailJson; canWrite: bo
         </fieldset>
       ) : (
         <p className="text-slate-700">
-          Labour is{' '}
           {money.labourBasis === 'flat_price'
-            ? 'the flat price for the service'
-            : money.labourBasis === 'bench_time'
-              ? `charged by bench time (${benchText})`
-              : 'a set amount'}
-          .
+            ? 'Labour is the shop’s flat price for the service.'
+            : money.labourBasis === 'bench_time' && money.labourCents > 0
+              ? `Labour is charged by bench time (${benchText}).`
+              : money.labourCents === 0
+                ? 'No labour charged yet.'
+                : 'Labour as recorded for this job.'}
         </p>
       )}
       <dl className="mt-5 space-y-2 text-lg">

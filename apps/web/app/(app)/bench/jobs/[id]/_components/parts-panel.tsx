@@ -46,83 +46,76 @@ export function PartsPanel({ job, canWrite }: { job: JobDetailJson; canWrite: bo
   });
 
   return (
-    <Panel
-      title="Parts"
-      description="Parts fitted to this reel; the job’s parts total follows these lines."
-    >
+    <Panel title="Parts" description="Parts fitted to this reel.">
       {job.parts.length === 0 ? (
         <Empty>No parts on this job yet.</Empty>
       ) : (
-        <div className="overflow-x-auto">
-          <table className="w-full min-w-[32rem] text-left">
-            <caption className="sr-only">Parts on job #{job.id}</caption>
-            <thead>
-              <tr className="border-b border-sand-300 text-sm text-slate-600">
-                <th scope="col" className="py-2 pr-3 font-medium">
-                  Part
+        <table className="w-full text-left">
+          <caption className="sr-only">Parts on job #{job.id}</caption>
+          <thead>
+            <tr className="border-b border-sand-300 text-sm text-slate-600">
+              <th scope="col" className="py-2 pr-2 font-medium">
+                Part
+              </th>
+              <th scope="col" className="num py-2 pr-2 font-medium">
+                Qty × price
+              </th>
+              <th scope="col" className="num py-2 font-medium">
+                Line
+              </th>
+              {canWrite && (
+                <th scope="col" className="w-0 py-2 font-medium">
+                  <span className="sr-only">Remove</span>
                 </th>
-                <th scope="col" className="py-2 pr-3 font-medium">
-                  Part number
+              )}
+            </tr>
+          </thead>
+          <tbody>
+            {job.parts.map((p) => (
+              <tr key={p.id} className="border-b border-sand-100 align-top">
+                <th scope="row" className="py-2 pr-2 font-medium">
+                  {p.name}
+                  {p.partNumber && (
+                    <span className="block text-sm font-normal text-slate-600">{p.partNumber}</span>
+                  )}
                 </th>
-                <th scope="col" className="num py-2 pr-3 font-medium">
-                  Qty
-                </th>
-                <th scope="col" className="num py-2 pr-3 font-medium">
-                  Unit price
-                </th>
-                <th scope="col" className="num py-2 pr-3 font-medium">
-                  Line total
-                </th>
+                <td className="num py-2 pr-2 whitespace-nowrap">
+                  {p.quantity} × {formatCents(p.unitPriceCents)}
+                </td>
+                <td className="num py-2 whitespace-nowrap">{formatCents(p.lineCents)}</td>
                 {canWrite && (
-                  <th scope="col" className="py-2 font-medium">
-                    <span className="sr-only">Remove</span>
-                  </th>
+                  <td className="py-0.5 pl-1 text-right">
+                    <button
+                      type="button"
+                      onClick={() => remove.mutate(p.id)}
+                      disabled={remove.isPending}
+                      aria-label={`Remove ${p.name}`}
+                      title={`Remove ${p.name}`}
+                      className="inline-flex size-11 items-center justify-center rounded-md text-xl text-brick-700 hover:bg-brick-50"
+                    >
+                      <span aria-hidden="true">×</span>
+                    </button>
+                  </td>
                 )}
               </tr>
-            </thead>
-            <tbody>
-              {job.parts.map((p) => (
-                <tr key={p.id} className="border-b border-sand-100">
-                  <th scope="row" className="py-2 pr-3 font-medium">
-                    {p.name}
-                  </th>
-                  <td className="py-2 pr-3 text-slate-700">{p.partNumber ?? '–'}</td>
-                  <td className="num py-2 pr-3">{p.quantity}</td>
-                  <td className="num py-2 pr-3">{formatCents(p.unitPriceCents)}</td>
-                  <td className="num py-2 pr-3">{formatCents(p.lineCents)}</td>
-                  {canWrite && (
-                    <td className="py-1 text-right">
-                      <button
-                        type="button"
-                        onClick={() => remove.mutate(p.id)}
-                        disabled={remove.isPending}
-                        aria-label={`Remove ${p.name}`}
-                        className="min-h-11 rounded-md px-3 font-medium text-brick-700 underline underline-offset-2 hover:bg-brick-50"
-                      >
-                        Remove
-                      </button>
-                    </td>
-                  )}
-                </tr>
-              ))}
-            </tbody>
-            <tfoot>
-              <tr className="font-semibold">
-                <th scope="row" colSpan={4} className="py-2 pr-3">
-                  Parts total
-                </th>
-                <td className="num py-2 pr-3">{formatCents(job.money.partsCents)}</td>
-                {canWrite && <td />}
-              </tr>
-            </tfoot>
-          </table>
-        </div>
+            ))}
+          </tbody>
+          <tfoot>
+            <tr className="font-semibold">
+              <th scope="row" colSpan={2} className="py-2 pr-2">
+                Parts total
+              </th>
+              <td className="num py-2">{formatCents(job.money.partsCents)}</td>
+              {canWrite && <td />}
+            </tr>
+          </tfoot>
+        </table>
       )}
       <ErrorNote error={remove.error} />
       {canWrite && (
         <form onSubmit={onSubmit} noValidate className="mt-5 border-t border-sand-200 pt-5">
           <h3 className="font-semibold text-slate-900">Add a part</h3>
-          <div className="mt-2 grid gap-3 sm:grid-cols-2 md:grid-cols-[2fr_1.2fr_0.6fr_1fr]">
+          <div className="mt-2 grid grid-cols-2 gap-3">
             {(
               [
                 ['name', 'Part', 'text', undefined],
@@ -133,7 +126,10 @@ export function PartsPanel({ job, canWrite }: { job: JobDetailJson; canWrite: bo
             ).map(([key, label, type, mode]) => {
               const errorKey = key === 'unitPrice' ? 'unitPriceCents' : key;
               return (
-                <div key={key}>
+                <div
+                  key={key}
+                  className={key === 'name' || key === 'partNumber' ? 'col-span-2' : ''}
+                >
                   <label htmlFor={`part-${key}`} className="block font-medium text-slate-800">
                     {label}
                   </label>

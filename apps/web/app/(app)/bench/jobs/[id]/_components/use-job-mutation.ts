@@ -22,7 +22,11 @@ export function useJobMutation<TVariables>(
   return useMutation({
     mutationFn: request,
     scope: options.scope ? { id: `job-${jobId}-${options.scope}` } : undefined,
-    onMutate: options.onMutate,
+    onMutate: async (variables) => {
+      // A read already on its way would bring back the job as it was before this write.
+      await queryClient.cancelQueries({ queryKey: jobKeys.detail(jobId) });
+      options.onMutate?.(variables);
+    },
     onSuccess: (job, variables) => {
       if (options.isLatest && !options.isLatest(variables)) return;
       queryClient.setQueryData(jobKeys.detail(jobId), job);
