@@ -143,7 +143,7 @@ test.describe(() => {
 
 test.describe(() => {
   test.use({ storageState: storageState('leadMarram') });
-  test('shop lead – sends reminders once', async ({ page, request }) => {
+  test('shop lead – sends reminders once', async ({ page, request, browser }) => {
     await page.goto('/reminders');
     await expect(page.getByRole('heading', { level: 1, name: 'Service reminders' })).toBeVisible();
     await expectAccessible(page);
@@ -176,16 +176,45 @@ test.describe(() => {
     expect(await again.json()).toMatchObject({ batch: { total: 0, status: 'done' } });
     await expectAccessible(page);
     await screenshots(page, 'reminders-sent');
+
+    // The caught e-mail carries a working unsubscribe link; it needs no sign-in.
+    const owner = await browser.newContext({ storageState: storageState('owner') });
+    const mail = await owner.newPage();
+    await mail.goto('/dev/mail');
+    const reminder = mail
+      .getByRole('article')
+      .filter({ hasText: 'is due for a service at Marram Point' })
+      .first();
+    await expect(reminder).toBeVisible();
+    const link = /http:\/\/\S+\/unsubscribe\/[A-Za-z0-9_-]+/.exec(
+      (await reminder.locator('pre').textContent())!,
+    )![0];
+    await owner.close();
+    const customer = await browser.newContext();
+    const visit = await customer.newPage();
+    await visit.goto(link);
+    await expect(
+      visit.getByRole('heading', { level: 1, name: 'You will get no more service reminders' }),
+    ).toBeVisible();
+    await expect(
+      visit.getByText('Marram Point will not e-mail you about servicing your reels again.'),
+    ).toBeVisible();
+    await expectAccessible(visit);
+    await screenshots(visit, 'unsubscribe-done');
+    await visit.reload();
+    await expect(visit.getByText(/This was already recorded/)).toBeVisible();
+    await customer.close();
   });
 });
 
-test('customer – an unsubscribe link works without signing in', async ({ page }) => {
+test('customer – an unknown unsubscribe link says so, without signing in', async ({ page }) => {
   await page.goto('/unsubscribe/not-a-token-from-any-reminder');
   await expect(
     page.getByRole('heading', { level: 1, name: 'This link does not work' }),
   ).toBeVisible();
   await expect(page).toHaveURL(/\/unsubscribe\//);
   await expectAccessible(page);
+  await screenshots(page, 'unsubscribe-unknown');
 });
 
 test.describe(() => {

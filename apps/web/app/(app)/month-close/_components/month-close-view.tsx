@@ -33,7 +33,7 @@ type Totals = MonthCloseData['totals'];
 const field =
   'min-h-11 rounded-md border border-sand-300 bg-white px-3 text-slate-900 shadow-sm focus-visible:border-sea-600';
 const primary =
-  'inline-flex min-h-11 items-center justify-center rounded-md bg-sea-700 px-4 font-medium text-white shadow-sm hover:bg-sea-800 disabled:cursor-not-allowed disabled:bg-slate-400';
+  'inline-flex min-h-11 items-center justify-center rounded-md bg-sea-700 px-4 font-medium text-white shadow-sm hover:bg-sea-800 disabled:cursor-not-allowed disabled:bg-sand-200 disabled:text-slate-700 disabled:shadow-none';
 const secondary =
   'inline-flex min-h-11 items-center justify-center rounded-md border border-sea-700 bg-white px-4 font-medium text-sea-800 hover:bg-sea-50 disabled:cursor-not-allowed disabled:border-slate-300 disabled:text-slate-500';
 
@@ -627,7 +627,7 @@ function QualityTable({ report }: { report: MonthCloseData }) {
   return (
     <Panel
       title="Quality"
-      description={`Comeback rate of the jobs collected in the month whose ${report.warrantyDays}-day warranty window had closed by ${utc(report.asOf)}, plus those that already came back. Jobs still inside their window are left out, so soon after the month most are, the rate rests on few jobs and leans on the returns: read the interval, not only the rate. Audit rounds decided in the month; corrective actions open at its end.`}
+      description={`Comeback rate of the jobs collected in the month whose ${report.warrantyDays}-day warranty window had closed by ${utc(report.asOf)}, plus those that already came back. Jobs still inside their window are left out; soon after the month ends that is most of them, so the rate rests on few jobs and leans on the returns: read the interval as well as the rate. Audit rounds decided in the month; corrective actions open at its end.`}
     >
       <TableFrame label="Quality per shop">
         <table className="w-full min-w-[48rem] text-left">

@@ -20,7 +20,7 @@ type Reminder = DueData['reels'][number]['reminder'];
 const field =
   'min-h-11 rounded-md border border-sand-300 bg-white px-3 text-slate-900 shadow-sm focus-visible:border-sea-600';
 const primary =
-  'inline-flex min-h-11 items-center justify-center rounded-md bg-sea-700 px-4 font-medium text-white shadow-sm hover:bg-sea-800 disabled:cursor-not-allowed disabled:bg-slate-400';
+  'inline-flex min-h-11 items-center justify-center rounded-md bg-sea-700 px-4 font-medium text-white shadow-sm hover:bg-sea-800 disabled:cursor-not-allowed disabled:bg-sand-200 disabled:text-slate-700 disabled:shadow-none';
 const secondary =
   'inline-flex min-h-11 items-center justify-center rounded-md border border-sea-700 bg-white px-4 font-medium text-sea-800 hover:bg-sea-50';
 
@@ -206,7 +206,7 @@ export function RemindersView({ shopId, initialWeeks }: { shopId: number; initia
         <Stat
           label="Reels due"
           value={report.counts.due}
-          hint={`By ${day(report.horizon)}, overdue included`}
+          hint={`By ${day(report.horizon)}, and any due in the last two weeks`}
         />
         <Stat label="Will get a reminder" value={toSend} hint="Consented, with an e-mail address" />
         <Stat label="Already reminded" value={report.counts.sent} hint="For the same due date" />
