@@ -7,6 +7,7 @@ import {
   auditSamples,
   correctiveActions,
   emails,
+  photos,
 } from '@reelwright/db/schema';
 import { drawSample } from '@reelwright/metrics';
 import { NextRequest } from 'next/server';
@@ -416,6 +417,42 @@ describe('scoring and deciding', () => {
     expect(view.job.id).toBe(jobId);
     expect(view.round.status).toBe('in_progress');
     expect(view.nextJobId).toBe(round.sampledJobIds[1]);
+  });
+
+  it('auditor – sees the job record read-only, with confirmed photos listed by name without storage', async () => {
+    const jobId = round.sampledJobIds[1]!;
+    await db()
+      .insert(photos)
+      .values([
+        {
+          jobId,
+          stage: 'teardown',
+          storageKey: `test/${jobId}/a`,
+          contentType: 'image/jpeg',
+          sizeBytes: 1000,
+          originalName: 'drag-stack.jpg',
+          confirmedAt: new Date(),
+        },
+        {
+          jobId,
+          stage: 'teardown',
+          storageKey: `test/${jobId}/b`,
+          contentType: 'image/jpeg',
+          sizeBytes: 1000,
+          originalName: 'never-confirmed.jpg',
+        },
+      ]);
+    const view = await getSample(auditorA, round.id, jobId);
+    expect(view.job).toMatchObject({
+      id: jobId,
+      findings: 'Cleaned and greased.',
+      money: { labourCents: 4500, totalCents: 4500 },
+      photosViewable: false,
+    });
+    expect(view.job.photos).toEqual([
+      expect.objectContaining({ name: 'drag-stack.jpg', stage: 'teardown', url: null }),
+    ]);
+    expect(view.job).not.toHaveProperty('customer');
   });
 
   it('auditor – cannot finish with an item unanswered or a failure without a note', async () => {

@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { JOB_STATE_LABELS, REEL_KIND_LABELS, SERVICE_LABELS, type JobState } from '~/lib/labels';
 import type { JobRecord as Record } from '~/server/queries/audits';
-import { formatCents, formatInstant, formatMinutes } from './format';
+import { formatCents, formatInstant, formatMinutes, formLabel } from './format';
 
 const STAGE_LABELS: { [k: string]: string } = {
   check_in: 'At check-in',
@@ -157,7 +157,7 @@ export function JobRecordView({ job, timeZone }: { job: Record; timeZone: string
       <Section title="Checklist" id={`job-${job.id}-checklist`}>
         {job.checklist.standard ? (
           <p className="text-sm text-slate-700">
-            {job.checklist.standard.title} (version {job.checklist.standard.version}):{' '}
+            {formLabel(job.checklist.standard.title, job.checklist.standard.version)}:{' '}
             {job.checklist.steps.filter((s) => s.ticked).length} of {job.checklist.steps.length}{' '}
             steps ticked;{' '}
             {requiredUnticked === 0
