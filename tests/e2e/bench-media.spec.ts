@@ -97,7 +97,8 @@ test.describe('photos on the bench', () => {
     const thumb = panel.getByRole('button', { name: 'Open teardown photo 1 of 1' });
     await expect(thumb).toBeVisible();
     await expect(panel.getByRole('heading', { name: 'Teardown (1)' })).toBeVisible();
-    // The thumbnail is the stored image itself, loaded from storage.
+    // The thumbnail is the stored image itself, loaded (lazily, once in view) from storage.
+    await thumb.scrollIntoViewIfNeeded();
     const img = thumb.locator('img');
     await expect
       .poll(() => img.evaluate((el: HTMLImageElement) => el.complete && el.naturalWidth))
@@ -111,8 +112,10 @@ test.describe('photos on the bench', () => {
     ]);
 
     await expectAccessible(page);
-    await panel.scrollIntoViewIfNeeded();
-    await shoot(page, 'bench-photos');
+    await panel.screenshot({ path: screenshotPath('bench-photos-1280') });
+    await page.setViewportSize(TABLET);
+    await panel.screenshot({ path: screenshotPath('bench-photos-1024') });
+    await page.setViewportSize({ width: 1280, height: 900 });
 
     // Opens large from the keyboard, and closes with Escape back onto the thumbnail.
     await thumb.focus();
@@ -122,6 +125,9 @@ test.describe('photos on the bench', () => {
     await expect(dialog.getByRole('img', { name: 'Teardown photo of the reel' })).toBeVisible();
     await expectAccessible(page);
     await page.screenshot({ path: screenshotPath('bench-photo-large-1280') });
+    await page.setViewportSize(TABLET);
+    await page.screenshot({ path: screenshotPath('bench-photo-large-1024') });
+    await page.setViewportSize({ width: 1280, height: 900 });
     await page.keyboard.press('Escape');
     await expect(dialog).toBeHidden();
     await expect(thumb).toBeFocused();
@@ -338,7 +344,12 @@ test.describe('CSV import', () => {
       buffer: bad,
     });
     await expect(page.getByText('bad-jobs.csv: 40 rows, 28 columns.')).toBeVisible();
-    // The headings match the template, so every field is matched already.
+    // The headings match the template, so every field is matched already and folded away.
+    const matched = page.getByText(
+      '28 of 28 fields matched from the file’s headings — every needed one',
+    );
+    await expect(matched).toBeVisible();
+    await matched.click();
     await expect(page.getByRole('combobox', { name: 'Reel kind (required)' })).toHaveValue(
       'reel_kind',
     );

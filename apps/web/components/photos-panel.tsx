@@ -3,6 +3,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useId, useRef, useState, type ChangeEvent } from 'react';
 import { ProblemError } from '~/lib/api-client';
+import { formatInZone } from '~/lib/format';
 import { jobPhotosQuery, photoKeys, uploadPhoto } from '~/lib/queries/photos';
 import {
   PHOTO_MAX_BYTES,
@@ -28,10 +29,9 @@ const sizeText = (bytes: number) =>
     ? `${(bytes / (1024 * 1024)).toFixed(1)} MB`
     : `${Math.max(1, Math.round(bytes / 1024))} KB`;
 
-const timeText = (iso: string) =>
-  new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' }).format(
-    new Date(iso),
-  );
+/** In the shop's zone, like every other time on the job. */
+const timeText = (iso: string, timeZone: string) =>
+  formatInZone(new Date(iso), timeZone, 'EEE d MMM yyyy, HH:mm');
 
 /**
  * The job's photos at check-in, teardown and reassembly. Files go straight from the browser to
@@ -218,13 +218,19 @@ export function PhotosPanel({ jobId, canUpload }: { jobId: number; canUpload: bo
         )}
       </div>
 
-      <PhotoDialog photos={photos} openId={open} onChange={setOpen} />
+      <PhotoDialog
+        photos={photos}
+        timeZone={data?.timeZone ?? 'UTC'}
+        openId={open}
+        onChange={setOpen}
+      />
     </section>
   );
 }
 
 function PhotoDialog(props: {
   photos: PhotoView[];
+  timeZone: string;
   openId: number | null;
   onChange: (id: number | null) => void;
 }) {
@@ -297,7 +303,7 @@ function PhotoDialog(props: {
               <img
                 src={photo.url}
                 alt={`${PHOTO_STAGE_LABELS[photo.stage]} photo of the reel`}
-                className="max-h-[75vh] w-auto max-w-full object-contain"
+                className="h-[75vh] w-full object-contain"
               />
             ) : (
               <p className="p-10 text-center text-white">
@@ -311,7 +317,7 @@ function PhotoDialog(props: {
           </div>
           <p className="px-5 py-3 text-sm text-slate-600">
             {photo.uploadedBy ? `Added by ${photo.uploadedBy}` : 'Added'} on{' '}
-            {timeText(photo.createdAt)} · {sizeText(photo.sizeBytes)}
+            {timeText(photo.createdAt, props.timeZone)} · {sizeText(photo.sizeBytes)}
             {photo.originalName ? ` · ${photo.originalName}` : ''}
           </p>
         </div>

@@ -10,7 +10,8 @@ export const photoKeys = {
 export const jobPhotosQuery = (jobId: number) =>
   queryOptions({
     queryKey: photoKeys.job(jobId),
-    queryFn: () => fetchJson<{ photos: PhotoView[] }>(`/api/jobs/${jobId}/photos`),
+    queryFn: () =>
+      fetchJson<{ photos: PhotoView[]; timeZone: string }>(`/api/jobs/${jobId}/photos`),
     // View URLs live 15 minutes; fetch fresh ones well before they run out.
     staleTime: 5 * 60_000,
     refetchInterval: 10 * 60_000,

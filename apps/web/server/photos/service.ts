@@ -51,7 +51,7 @@ const storageUnavailable = () =>
 async function jobInScope(principal: Principal, jobId: number) {
   const conn = await db();
   const [job] = await conn
-    .select({ id: jobs.id, shopId: jobs.shopId })
+    .select({ id: jobs.id, shopId: jobs.shopId, timeZone: shops.timeZone })
     .from(jobs)
     .innerJoin(shops, eq(shops.id, jobs.shopId))
     .where(and(eq(jobs.id, jobId), shopScope(principal)))
@@ -142,8 +142,14 @@ export async function confirmPhotoUpload(
   return (await viewPhotos([photo.id]))[0]!;
 }
 
-/** The job's checked photos, by stage and then upload order, each with a short-lived view URL. */
-export async function listPhotos(principal: Principal, jobId: number): Promise<PhotoView[]> {
+/**
+ * The job's checked photos, by stage and then upload order, each with a short-lived view URL, and
+ * the shop's time zone to show their times in.
+ */
+export async function listPhotos(
+  principal: Principal,
+  jobId: number,
+): Promise<{ photos: PhotoView[]; timeZone: string }> {
   const job = await jobInScope(principal, jobId);
   const conn = await db();
   const rows = await conn
@@ -151,11 +157,11 @@ export async function listPhotos(principal: Principal, jobId: number): Promise<P
     .from(photos)
     .where(and(eq(photos.jobId, job.id), isNotNull(photos.confirmedAt)))
     .orderBy(asc(photos.createdAt), asc(photos.id));
-  if (!rows.length) return [];
+  if (!rows.length) return { photos: [], timeZone: job.timeZone };
   if (!storageConfigured()) throw storageUnavailable();
   const views = await viewPhotos(rows.map((r) => r.id));
   const order = (s: PhotoStage) => PHOTO_STAGES.indexOf(s);
-  return views.sort((a, b) => order(a.stage) - order(b.stage));
+  return { photos: views.sort((a, b) => order(a.stage) - order(b.stage)), timeZone: job.timeZone };
 }
 
 async function viewPhotos(ids: number[]): Promise<PhotoView[]> {

@@ -72,7 +72,7 @@ export default async function DevMailPage({
             type="email"
             defaultValue={to}
             placeholder="customer@example.test"
-            className="mt-1 min-h-11 w-72 rounded-md border border-slate-400 bg-white px-3"
+            className="mt-1 min-h-11 w-96 max-w-full rounded-md border border-slate-400 bg-white px-3"
           />
         </div>
         <button

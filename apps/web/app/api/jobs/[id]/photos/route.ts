@@ -14,7 +14,7 @@ export const dynamic = 'force-dynamic';
 
 export const GET = route(
   { permission: 'jobs:read', params: idParams },
-  async ({ principal, params }) => ({ photos: await listPhotos(principal, params.id) }),
+  async ({ principal, params }) => listPhotos(principal, params.id),
 );
 
 /**
