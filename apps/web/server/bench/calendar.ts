@@ -26,7 +26,8 @@ export function localDate(instant: Date, timeZone: string): string {
   return dateOfDay(localDayNumber(instant, timeZone));
 }
 
-function atLocal(date: string, clock: string, timeZone: string): Date {
+/** The instant a local date's clock shows `clock` ("HH:mm") in the zone. */
+export function atLocal(date: string, clock: string, timeZone: string): Date {
   const [y, m, d] = date.split('-').map(Number) as [number, number, number];
   const [h, min] = clock.split(':').map(Number) as [number, number];
   // "24:00" is the next midnight; TZDate rolls the hour over.
@@ -53,6 +54,9 @@ export function promiseInstant(date: string, calendar: ShopCalendar): Date {
   const close = isOpenOn(date, calendar) ? closes[closes.length - 1] : undefined;
   return atLocal(date, close ?? '17:00', calendar.timeZone);
 }
+
+/** The local date after `date`. */
+export const nextDate = (date: string) => dateOfDay(civilDayNumber(date) + 1);
 
 /** The `n`th open local date after the local date of `from` (n ≥ 1). */
 export function addOpenDays(from: Date, n: number, calendar: ShopCalendar): string {

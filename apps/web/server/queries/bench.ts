@@ -30,7 +30,14 @@ import {
 } from '@reelwright/db/schema';
 import type { JobState } from '~/lib/labels';
 import { NEXT_STATES, OPEN_STATES, type JobListQuery } from '~/lib/validators/jobs';
-import { localDate, shopCalendar, suggestPromise, type PromiseSuggestion } from '../bench/calendar';
+import {
+  atLocal,
+  localDate,
+  nextDate,
+  shopCalendar,
+  suggestPromise,
+  type PromiseSuggestion,
+} from '../bench/calendar';
 import { benchChargeCents, jobScope } from '../bench/shared';
 import { db } from '../db';
 import { notFound } from '../errors';
@@ -74,16 +81,74 @@ function escapeLike(s: string) {
   return s.replace(/[\\%_]/g, (c) => `\\${c}`);
 }
 
-function listConditions(principal: Principal, q: JobListQuery, now: Date): (SQL | undefined)[] {
-  const conditions: (SQL | undefined)[] = [jobScope(principal)];
-  if (q.shopId !== undefined) conditions.push(eq(jobs.shopId, q.shopId));
+interface ScopeShop {
+  id: number;
+  timeZone: string;
+}
+
+interface SearchMatches {
+  customerIds: number[];
+  reelIds: number[];
+  jobId?: number;
+}
+
+/**
+ * Customers (name, e-mail, phone digits) and reels (maker and model) matching the search, found
+ * first in their own tables (thousands of rows, not the jobs) so the jobs are then reached by
+ * index. Not limited to the customers' home shops: a customer of one shop may bring a reel to
+ * another; the jobs query keeps to the caller's shops.
+ */
+async function searchMatches(conn: Pick<Tx, 'select'>, text: string): Promise<SearchMatches> {
+  const like = `%${escapeLike(text)}%`;
+  const digits = text.replace(/\D/g, '');
+  const customerMatch: SQL[] = [ilike(customers.name, like), ilike(customers.email, like)];
+  if (digits.length >= 3)
+    customerMatch.push(
+      sql`regexp_replace(${customers.phone}, '[^0-9]', '', 'g') like ${`%${digits}%`}`,
+    );
+  const [c, r] = await Promise.all([
+    conn
+      .select({ id: customers.id })
+      .from(customers)
+      .where(or(...customerMatch)),
+    conn
+      .select({ id: reels.id })
+      .from(reels)
+      .where(ilike(sql`${reels.maker} || ' ' || ${reels.model}`, like)),
+  ]);
+  return {
+    customerIds: c.map((x) => x.id),
+    reelIds: r.map((x) => x.id),
+    jobId: /^\d{1,9}$/.test(text) ? Number(text) : undefined,
+  };
+}
+
+function listConditions(
+  shopIds: number[] | null,
+  q: JobListQuery,
+  now: Date,
+  zones: ScopeShop[],
+  search: SearchMatches | null,
+) {
+  const conditions: (SQL | undefined)[] = [];
+  if (shopIds !== null) conditions.push(inArray(jobs.shopId, shopIds));
   if (q.state?.length) conditions.push(inArray(jobs.state, q.state));
   if (q.technicianId !== undefined) conditions.push(eq(jobs.technicianId, q.technicianId));
   if (q.service) conditions.push(eq(jobs.serviceType, q.service));
-  // Local dates are the shop's own: compare the check-in's date in the shop's zone.
-  const localDay = sql`(${jobs.checkedInAt} at time zone ${shops.timeZone})::date`;
-  if (q.from) conditions.push(sql`${localDay} >= ${q.from}::date`);
-  if (q.to) conditions.push(sql`${localDay} <= ${q.to}::date`);
+  if (q.from || q.to) {
+    // Local dates are each shop's own: one instant range per time zone, so the
+    // (shop, checked-in) index still applies.
+    const byZone = new Map<string, number[]>();
+    for (const s of zones) byZone.set(s.timeZone, [...(byZone.get(s.timeZone) ?? []), s.id]);
+    const ranges = [...byZone].map(([zone, ids]) =>
+      and(
+        inArray(jobs.shopId, ids),
+        q.from ? gte(jobs.checkedInAt, atLocal(q.from, '00:00', zone)) : undefined,
+        q.to ? lt(jobs.checkedInAt, atLocal(nextDate(q.to), '00:00', zone)) : undefined,
+      ),
+    );
+    conditions.push(ranges.length > 0 ? or(...ranges) : sql`false`);
+  }
   if (q.waitingDays !== undefined) {
     conditions.push(inArray(jobs.state, [...OPEN_STATES]));
     conditions.push(lt(jobs.stateChangedAt, new Date(now.getTime() - q.waitingDays * DAY)));
@@ -91,23 +156,13 @@ function listConditions(principal: Principal, q: JobListQuery, now: Date): (SQL 
   if (q.q && /^#\d{1,9}$/.test(q.q)) {
     // "#123" asks for a job number and nothing else.
     conditions.push(eq(jobs.id, Number(q.q.slice(1))));
-  } else if (q.q) {
-    const text = q.q;
-    const like = `%${escapeLike(text)}%`;
-    const digits = text.replace(/\D/g, '');
-    const matches: SQL[] = [
-      ilike(customers.name, like),
-      ilike(customers.email, like),
-      ilike(reels.maker, like),
-      ilike(reels.model, like),
-      ilike(sql`${reels.maker} || ' ' || ${reels.model}`, like),
+  } else if (search) {
+    const matching: SQL[] = [
+      search.customerIds.length ? inArray(jobs.customerId, search.customerIds) : sql`false`,
+      search.reelIds.length ? inArray(jobs.reelId, search.reelIds) : sql`false`,
     ];
-    if (digits.length >= 3)
-      matches.push(
-        sql`regexp_replace(${customers.phone}, '[^0-9]', '', 'g') like ${`%${digits}%`}`,
-      );
-    if (/^\d{1,9}$/.test(text)) matches.push(eq(jobs.id, Number(text)));
-    conditions.push(or(...matches));
+    if (search.jobId !== undefined) matching.push(eq(jobs.id, search.jobId));
+    conditions.push(or(...matching));
   }
   return conditions;
 }
@@ -123,14 +178,15 @@ export async function listJobs(
 ): Promise<JobList> {
   const now = options.now ?? new Date();
   const conn = await db();
-  if (q.shopId !== undefined) {
-    const [shop] = await conn
-      .select({ id: shops.id })
-      .from(shops)
-      .where(and(eq(shops.id, q.shopId), shopScope(principal)));
-    if (!shop) throw notFound('shop');
-  }
-  const where = and(...listConditions(principal, q, now));
+  const zones = await conn
+    .select({ id: shops.id, timeZone: shops.timeZone })
+    .from(shops)
+    .where(and(shopScope(principal), q.shopId === undefined ? undefined : eq(shops.id, q.shopId)));
+  if (q.shopId !== undefined && zones.length === 0) throw notFound('shop');
+  const shopIds =
+    q.shopId === undefined && principal.scope.kind === 'network' ? null : zones.map((s) => s.id);
+  const search = q.q && !/^#\d{1,9}$/.test(q.q) ? await searchMatches(conn, q.q) : null;
+  const where = and(...listConditions(shopIds, q, now, zones, search));
   const direction = q.dir === 'asc' ? asc : desc;
   const sortColumn = {
     checkedInAt: jobs.checkedInAt,
@@ -140,48 +196,57 @@ export async function listJobs(
     id: jobs.id,
   }[q.sort];
   const nulls = q.sort === 'promisedAt' ? sql` nulls last` : sql``;
-  const needsJoins = q.q !== undefined;
-  const countQuery = conn
+  const [counted] = await conn
     .select({ n: sql<number>`count(*)`.mapWith(Number) })
     .from(jobs)
-    .innerJoin(shops, eq(shops.id, jobs.shopId));
-  const [counted] = await (needsJoins
-    ? countQuery
-        .innerJoin(customers, eq(customers.id, jobs.customerId))
-        .innerJoin(reels, eq(reels.id, jobs.reelId))
-        .where(where)
-    : countQuery.where(where));
+    .where(where);
   const total = counted?.n ?? 0;
-  const rows = await conn
-    .select({
-      id: jobs.id,
-      state: jobs.state,
-      serviceType: jobs.serviceType,
-      checkedInAt: jobs.checkedInAt,
-      promisedAt: jobs.promisedAt,
-      stateChangedAt: jobs.stateChangedAt,
-      readyAt: jobs.readyAt,
-      labourCents: jobs.labourCents,
-      partsCents: jobs.partsCents,
-      discountCents: jobs.discountCents,
-      customerName: customers.name,
-      maker: reels.maker,
-      model: reels.model,
-      size: reels.size,
-      technicianName: users.name,
-      shopId: shops.id,
-      shopName: shops.name,
-      timeZone: shops.timeZone,
-    })
-    .from(jobs)
-    .innerJoin(shops, eq(shops.id, jobs.shopId))
-    .innerJoin(customers, eq(customers.id, jobs.customerId))
-    .innerJoin(reels, eq(reels.id, jobs.reelId))
-    .leftJoin(users, eq(users.id, jobs.technicianId))
-    .where(where)
-    .orderBy(sql`${direction(sortColumn)}${nulls}`, direction(jobs.id))
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
+  // The page's ids come from the jobs table alone (customers joined only to sort by name), so
+  // ordering and offset walk an index; the page's 25–100 rows are then joined for display.
+  const idQuery = conn.select({ id: jobs.id }).from(jobs);
+  const pageIds = (
+    await (
+      q.sort === 'customer'
+        ? idQuery.innerJoin(customers, eq(customers.id, jobs.customerId))
+        : idQuery
+    )
+      .where(where)
+      .orderBy(sql`${direction(sortColumn)}${nulls}`, direction(jobs.id))
+      .limit(q.pageSize)
+      .offset((q.page - 1) * q.pageSize)
+  ).map((r) => r.id);
+  const found =
+    pageIds.length === 0
+      ? []
+      : await conn
+          .select({
+            id: jobs.id,
+            state: jobs.state,
+            serviceType: jobs.serviceType,
+            checkedInAt: jobs.checkedInAt,
+            promisedAt: jobs.promisedAt,
+            stateChangedAt: jobs.stateChangedAt,
+            readyAt: jobs.readyAt,
+            labourCents: jobs.labourCents,
+            partsCents: jobs.partsCents,
+            discountCents: jobs.discountCents,
+            customerName: customers.name,
+            maker: reels.maker,
+            model: reels.model,
+            size: reels.size,
+            technicianName: users.name,
+            shopId: shops.id,
+            shopName: shops.name,
+            timeZone: shops.timeZone,
+          })
+          .from(jobs)
+          .innerJoin(shops, eq(shops.id, jobs.shopId))
+          .innerJoin(customers, eq(customers.id, jobs.customerId))
+          .innerJoin(reels, eq(reels.id, jobs.reelId))
+          .leftJoin(users, eq(users.id, jobs.technicianId))
+          .where(inArray(jobs.id, pageIds));
+  const byId = new Map(found.map((r) => [r.id, r]));
+  const rows = pageIds.map((id) => byId.get(id)!);
   const days = (from: Date) => Math.max(0, Math.floor((now.getTime() - from.getTime()) / DAY));
   return {
     total,

@@ -478,7 +478,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                       checked={reel.useProfile === u}
                       onChange={() => editReel('useProfile', u)}
                     >
-                      {USE_LABELS[u]}
+                      <span className="whitespace-nowrap">{USE_LABELS[u]}</span>
                     </Choice>
                   ))}
                 </div>
@@ -493,7 +493,7 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                       checked={reel.water === w}
                       onChange={() => editReel('water', w)}
                     >
-                      {WATER_LABELS[w]}
+                      <span className="whitespace-nowrap">{WATER_LABELS[w]}</span>
                     </Choice>
                   ))}
                 </div>
