@@ -1,4 +1,4 @@
-import { and, asc, eq } from '@reelwright/db';
+import { asc, eq } from '@reelwright/db';
 import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   activityLog,

@@ -3,7 +3,7 @@ import { customers, jobs, reels, type NewJob } from '@reelwright/db/schema';
 import { quantile } from '@reelwright/metrics';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { jobListQuery, type JobListParams } from '~/lib/validators/jobs';
-import { ApiError } from '../errors';
+import type { ApiError } from '../errors';
 import { openMinutesPerDay, shopCalendar } from '../bench/calendar';
 import { buildNetwork, type Network } from '../bench/fixture';
 import type { Principal } from '../principal';
