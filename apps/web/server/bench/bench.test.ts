@@ -472,6 +472,18 @@ describe('parts, money and record', () => {
     });
   });
 
+  it('technician – a job that reaches ready with no labour charge gets its service’s flat price', async () => {
+    const id = await newJob();
+    await patchJob(net.as.tech, id, { labourBasis: 'bench_time' });
+    expect((await getJobDetail(net.as.tech, id)).money.labourCents).toBe(0);
+    await transitionJob(net.as.tech, id, { to: 'on_bench' }, { now: est(2, '11:00') });
+    await transitionJob(net.as.tech, id, { to: 'ready', reason: 'Test' }, { now: est(2, '12:00') });
+    expect((await getJobDetail(net.as.tech, id)).money).toMatchObject({
+      labourCents: 4500,
+      labourBasis: 'flat_price',
+    });
+  });
+
   it('technician – a part of another job cannot be deleted through this one', async () => {
     const a = await jobIn('on_bench');
     const b = await jobIn('on_bench');
