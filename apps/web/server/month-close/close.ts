@@ -4,7 +4,7 @@ import { db } from '../db';
 import { conflict, forbidden } from '../errors';
 import type { Principal } from '../principal';
 import { currentClose, monthEnded } from '../queries/month-close';
-import { computeNetwork, networkRules } from './compute';
+import { auditsByShop, computeNetwork, networkRules } from './compute';
 import { monthLabel } from './period';
 
 /** Postgres "unique_violation", however the driver wraps it. */
@@ -31,7 +31,12 @@ export async function closeMonth(
   if (!(await monthEnded(conn, month, now)))
     throw conflict(`${monthLabel(month)} has not ended in every shop yet; close it once it has.`);
   if (await currentClose(conn, month)) throw conflict(`${monthLabel(month)} is already closed.`);
-  const figures = await computeNetwork(conn, month, await networkRules(conn, now));
+  const figures = await computeNetwork(
+    conn,
+    month,
+    await networkRules(conn, now),
+    await auditsByShop(principal, month),
+  );
   try {
     return await conn.transaction(async (tx) => {
       const [row] = await tx

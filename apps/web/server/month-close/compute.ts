@@ -13,7 +13,6 @@ import {
   type SQL,
 } from '@reelwright/db';
 import {
-  auditRounds,
   comebacks,
   correctiveActions,
   jobs,
@@ -35,6 +34,8 @@ import {
   type TotalsFigures,
   type Turnaround,
 } from './figures';
+import type { Principal } from '../principal';
+import { auditSummaryByShop } from '../queries/audits';
 import { monthDates } from './period';
 
 /** Shops per round trip: bounds memory, so 500 shops cost no more at a time than 25. */
@@ -82,12 +83,35 @@ function bounds(month: string) {
   return { start, end, within };
 }
 
+export type AuditsByShop = ReadonlyMap<number, Figures['audits']>;
+
+/**
+ * The month's audit figures per shop as the Audits section counts them (`auditSummaryByShop`):
+ * rounds whose period ends in the month (the shop's local dates), lots rejected, and scored samples
+ * that did not meet the standard.
+ */
+export async function auditsByShop(principal: Principal, month: string): Promise<AuditsByShop> {
+  const { first, last } = monthDates(month);
+  const rows = await auditSummaryByShop(principal, { from: first, to: last });
+  return new Map(
+    rows.map((r) => [
+      r.shopId,
+      {
+        rounds: r.roundsAccepted + r.roundsRejected,
+        rejected: r.roundsRejected,
+        failures: r.failures,
+      },
+    ]),
+  );
+}
+
 /** Figures for each shop, yielded in order, a batch of shops per round of queries. */
 export async function* streamShopFigures(
   conn: Db,
   shopList: readonly ShopRef[],
   month: string,
   rules: RateSettings,
+  audits: AuditsByShop,
   batchSize = BATCH_SIZE,
 ): AsyncGenerator<ShopFigures> {
   const { first, last } = monthDates(month);
@@ -100,7 +124,7 @@ export async function* streamShopFigures(
       .from(jobs)
       .innerJoin(shops, eq(shops.id, jobs.shopId))
       .where(and(inArray(jobs.shopId, ids), within(jobs.collectedAt)));
-    const [jobRows, comebackRows, auditRows, actionRows] = await Promise.all([
+    const [jobRows, comebackRows, actionRows] = await Promise.all([
       conn
         .select({
           shopId: jobs.shopId,
@@ -138,26 +162,6 @@ export async function* streamShopFigures(
         ),
       conn
         .select({
-          shopId: auditRounds.shopId,
-          rounds: sql<number>`count(*)`.mapWith(Number),
-          rejected:
-            sql<number>`count(*) filter (where ${auditRounds.decision} = 'rejected')`.mapWith(
-              Number,
-            ),
-          failures: sql<number>`coalesce(sum(${auditRounds.failures}), 0)`.mapWith(Number),
-        })
-        .from(auditRounds)
-        .innerJoin(shops, eq(shops.id, auditRounds.shopId))
-        .where(
-          and(
-            inArray(auditRounds.shopId, ids),
-            eq(auditRounds.status, 'decided'),
-            within(auditRounds.decidedAt),
-          ),
-        )
-        .groupBy(auditRounds.shopId),
-      conn
-        .select({
           shopId: correctiveActions.shopId,
           open: sql<number>`count(*)`.mapWith(Number),
         })
@@ -181,7 +185,6 @@ export async function* streamShopFigures(
     const jobsByShop = group(jobRows, (r) => r.shopId);
     const shopOfJob = new Map(jobRows.map((r) => [r.id, r.shopId]));
     const comebacksByShop = group(comebackRows, (r) => shopOfJob.get(r.originalJobId) ?? -1);
-    const audits = new Map(auditRows.map((r) => [r.shopId, r]));
     const actions = new Map(actionRows.map((r) => [r.shopId, r.open]));
     for (const shop of batch) {
       const audit = audits.get(shop.id);
@@ -283,12 +286,13 @@ export async function computeNetwork(
   conn: Db,
   month: string,
   rules: NetworkRules,
+  audits: AuditsByShop,
 ): Promise<FrozenFigures> {
   const shopList = await shopsIn(conn, undefined);
   const network = new TotalsAccumulator('All shops');
   const regionTotals = new Map<number, TotalsAccumulator>();
   const rows: ShopFigures[] = [];
-  for await (const row of streamShopFigures(conn, shopList, month, rules)) {
+  for await (const row of streamShopFigures(conn, shopList, month, rules, audits)) {
     rows.push(row);
     network.add(row);
     let acc = regionTotals.get(row.shop.regionId);

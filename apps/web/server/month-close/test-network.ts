@@ -2,6 +2,7 @@ import type { Db } from '@reelwright/db';
 import {
   auditForms,
   auditRounds,
+  auditSamples,
   comebacks,
   correctiveActions,
   customers,
@@ -293,26 +294,56 @@ export async function buildMonthCloseNetwork(db: Db) {
     .insert(auditForms)
     .values({ version: 1, title: 'Audit form v1' })
     .returning();
-  await db.insert(auditRounds).values({
-    shopId: dune!.id,
-    formId: form!.id,
-    periodStart: '2026-10-01',
-    periodEnd: '2026-10-31',
-    status: 'decided',
-    severity: 'normal',
-    aql: 2.5,
-    lotSize: 40,
-    codeLetter: 'D',
-    sampleSize: 8,
-    acceptNumber: 0,
-    rejectNumber: 1,
-    seed: 'test-seed',
-    lotJobIds: [d3!.id],
-    plannedById: owner.id,
-    failures: 2,
-    decision: 'rejected',
-    decidedAt: at('2026-11-25T15:00:00Z'),
-  });
+  const [round] = await db
+    .insert(auditRounds)
+    .values({
+      shopId: dune!.id,
+      formId: form!.id,
+      periodStart: '2026-11-01',
+      periodEnd: '2026-11-30',
+      status: 'decided',
+      severity: 'normal',
+      aql: 2.5,
+      lotSize: 40,
+      codeLetter: 'D',
+      sampleSize: 8,
+      acceptNumber: 0,
+      rejectNumber: 1,
+      seed: 'test-seed',
+      lotJobIds: [d3!.id],
+      plannedById: owner.id,
+      failures: 2,
+      decision: 'rejected',
+      decidedAt: at('2026-11-25T15:00:00Z'),
+    })
+    .returning();
+  // Two of the three scored samples failed: one needs work, one critical miss.
+  await db.insert(auditSamples).values([
+    {
+      roundId: round!.id,
+      jobId: d1!.id,
+      position: 1,
+      score: 70,
+      verdict: 'needs_work',
+      completedAt: at('2026-11-24T15:00:00Z'),
+    },
+    {
+      roundId: round!.id,
+      jobId: d2!.id,
+      position: 2,
+      score: 40,
+      verdict: 'critical_miss',
+      completedAt: at('2026-11-24T16:00:00Z'),
+    },
+    {
+      roundId: round!.id,
+      jobId: d3!.id,
+      position: 3,
+      score: 95,
+      verdict: 'meets_standard',
+      completedAt: at('2026-11-24T17:00:00Z'),
+    },
+  ]);
   await db.insert(correctiveActions).values([
     // Open at the end of November: created in November, still open.
     {

@@ -9,6 +9,7 @@ import {
 } from '@reelwright/db/schema';
 import { db } from '../db';
 import {
+  auditsByShop,
   networkRules,
   pooledTurnaround,
   shopsIn,
@@ -285,12 +286,14 @@ export async function getMonthClose(
     const inScope = new Set(ids);
     const frozenRows = frozen.shops.filter((r) => inScope.has(r.shop.id));
     const rules = await networkRules(conn, new Date(frozen.asOf));
+    const audits = await auditsByShop(principal, month);
     const live = await collect(
       streamShopFigures(
         conn,
         scoped.filter((s) => frozenRows.some((r) => r.shop.id === s.id)),
         month,
         rules,
+        audits,
       ),
     );
     return {
@@ -306,7 +309,9 @@ export async function getMonthClose(
     };
   }
   const rules = await networkRules(conn, now);
-  const rows = await collect(streamShopFigures(conn, scoped, month, rules));
+  const rows = await collect(
+    streamShopFigures(conn, scoped, month, rules, await auditsByShop(principal, month)),
+  );
   return {
     ...base,
     status: 'open',
@@ -387,7 +392,8 @@ export async function monthCloseCsv(
     periodStart: first,
     periodEnd: last,
   };
-  const rows = mapAsync(streamShopFigures(conn, scoped, month, rules), (f) => {
+  const audits = await auditsByShop(principal, month);
+  const rows = mapAsync(streamShopFigures(conn, scoped, month, rules, audits), (f) => {
     acc.add(f);
     return toRow(f);
   });
