@@ -157,10 +157,12 @@ test.describe('network view', () => {
             useInnerText: true,
           },
         );
-        const rate = csv[col('Comeback rate (%)')]!;
-        await expect(cells.nth(6), name).toContainText(`${Number(rate).toFixed(1)}%`, {
-          useInnerText: true,
-        });
+        // The table rounds the rate the CSV gives in full counts.
+        const events = Number(csv[col('Comebacks counted')]);
+        const trials = Number(csv[col('Comeback trials')]);
+        const shown = trials === 0 ? '—' : `${((100 * events) / trials).toFixed(1)}%`;
+        await expect(cells.nth(6), name).toContainText(shown, { useInnerText: true });
+        expect(Number(csv[col('Comeback rate (%)')])).toBeCloseTo((100 * events) / trials, 2);
         await expect(cells.nth(6), name).toContainText(
           { 'in line': 'In line', 'on watch': 'On watch', 'out of line': 'Out of line' }[
             csv[col('Comeback band')]!
@@ -249,6 +251,18 @@ test.describe('network view', () => {
       await expect(page.getByRole('tooltip').filter({ visible: true })).toContainText('came back');
       await page.keyboard.press('Escape');
       await expect(page.getByRole('tooltip').filter({ visible: true })).toHaveCount(0);
+      // And on hover: the on-time share of the first shop.
+      await shopTable(page)
+        .locator('tbody tr')
+        .first()
+        .locator('td')
+        .nth(5)
+        .getByRole('button')
+        .hover();
+      await expect(page.getByRole('tooltip').filter({ visible: true })).toContainText(
+        'promised time',
+      );
+      await page.mouse.move(0, 0);
       await expectAccessible(page);
       await shoot(page, 'network-owner');
       await page.getByLabel('Business days').check();

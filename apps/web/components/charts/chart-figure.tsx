@@ -1,8 +1,9 @@
 import type { ReactNode } from 'react';
 
 /**
- * A chart with a title that says what it shows, a sentence that says what it finds (read out in
- * place of the drawing), and the figures behind it as a table for anyone who cannot use the chart.
+ * A chart with a title that says what it shows, a sentence that says what it finds, and the
+ * figures behind it as a table for anyone who cannot use the drawing (which is hidden from
+ * assistive technology: it holds nothing the text and the table do not).
  */
 export function ChartFigure(props: {
   id: string;
@@ -23,12 +24,8 @@ export function ChartFigure(props: {
         {props.summary}
       </p>
       {props.legend && <div className="mt-2">{props.legend}</div>}
-      <div
-        role="img"
-        aria-labelledby={`${props.id}-title`}
-        aria-describedby={`${props.id}-summary`}
-        className="mt-3"
-      >
+      {/* The drawing repeats the summary and the table for sighted readers; assistive technology reads those instead. */}
+      <div aria-hidden="true" className="mt-3">
         {props.children}
       </div>
       <details className="mt-2 rounded-md border border-sand-200 bg-sand-50 px-3 py-2">

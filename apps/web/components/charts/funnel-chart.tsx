@@ -8,10 +8,10 @@ import {
   Line,
   ResponsiveContainer,
   Scatter,
-  Tooltip,
   XAxis,
   YAxis,
 } from 'recharts';
+import { niceTicks } from './ticks';
 
 export interface FunnelPoint {
   id: number;
@@ -30,8 +30,6 @@ const BAND_STYLE: Record<
   'out of line': { colour: '#a03c28', shape: 'diamond' },
 };
 export const FUNNEL_COLOURS = { network: '#1f514a', limit95: '#b08330', limit998: '#853223' };
-
-const pct = (x: number) => `${(x * 100).toFixed(x < 0.1 ? 1 : 0)}%`;
 
 /** Limit curves around the network rate at volumes spread over [lo, hi], by @reelwright/metrics. */
 export function funnelCurves(networkRate: number, lo: number, hi: number, steps = 60) {
@@ -66,6 +64,54 @@ export function funnelCurves(networkRate: number, lo: number, hi: number, steps 
   return out;
 }
 
+type Place = 'right' | 'left' | 'above' | 'below';
+const PLACES: Place[] = ['right', 'left', 'above', 'below'];
+const OFFSET: Record<Place, { dx: number; dy: number; anchor: 'start' | 'end' | 'middle' }> = {
+  right: { dx: 9, dy: 4, anchor: 'start' },
+  left: { dx: -9, dy: 4, anchor: 'end' },
+  above: { dx: 0, dy: -10, anchor: 'middle' },
+  below: { dx: 0, dy: 18, anchor: 'middle' },
+};
+
+/**
+ * Where each shop's name goes so that names do not overprint one another: the first of right,
+ * left, above and below whose box (estimated on a 1000 × 320 plot) is clear of those placed.
+ */
+function placeLabels(points: FunnelPoint[], x: (n: number) => number, y: (r: number) => number) {
+  const W = 1000;
+  const H = 320;
+  const boxes: { x0: number; x1: number; y0: number; y1: number }[] = points.map((p) => ({
+    x0: x(p.trials) * W - 6,
+    x1: x(p.trials) * W + 6,
+    y0: y(p.rate) * H - 6,
+    y1: y(p.rate) * H + 6,
+  }));
+  const out = new Map<number, Place>();
+  const order = [...points].sort((a, b) => a.trials - b.trials);
+  for (const p of order) {
+    const px = x(p.trials) * W;
+    const py = y(p.rate) * H;
+    const w = p.label.length * 7;
+    const candidates = PLACES.map((place) => {
+      const o = OFFSET[place];
+      const x0 = o.anchor === 'start' ? px + o.dx : o.anchor === 'end' ? px + o.dx - w : px - w / 2;
+      return { place, box: { x0, x1: x0 + w, y0: py + o.dy - 12, y1: py + o.dy + 2 } };
+    });
+    const clear = candidates.find(
+      (c) =>
+        c.box.x1 <= W + 90 &&
+        c.box.x0 >= -40 &&
+        boxes.every(
+          (b) => c.box.x1 < b.x0 || c.box.x0 > b.x1 || c.box.y1 < b.y0 || c.box.y0 > b.y1,
+        ),
+    );
+    const chosen = clear ?? candidates[0]!;
+    boxes.push(chosen.box);
+    out.set(p.id, chosen.place);
+  }
+  return out;
+}
+
 /**
  * Funnel plot: each shop's rate against its volume, with the network rate and the exact binomial
  * 95% and 99.8% limits as curves. Marks differ in shape as well as colour by band.
@@ -77,25 +123,37 @@ export function FunnelChart(props: {
   height?: number;
 }) {
   const volumes = props.points.map((p) => p.trials);
-  const lo = Math.max(1, Math.floor(Math.min(...volumes) * 0.6));
-  const hi = Math.max(lo + 1, Math.ceil(Math.max(...volumes) * 1.12));
+  const xTicks = niceTicks(Math.max(...volumes) * 1.08, 6);
+  const hi = xTicks.at(-1)!;
+  const lo = Math.max(2, Math.floor(Math.min(...volumes) * 0.5));
   const curves = funnelCurves(props.networkRate, lo, hi);
-  const top = Math.min(
-    1,
-    Math.max(...props.points.map((p) => p.rate), curves[0]?.upper998 ?? 0, props.networkRate * 2) *
-      1.1,
+  const atLowest = funnelLimits(Math.min(...volumes), props.networkRate, 0.998).upper;
+  const yTicks = niceTicks(
+    Math.min(
+      1,
+      Math.max(...props.points.map((p) => p.rate), atLowest, props.networkRate * 2) * 1.05,
+    ),
+    5,
+  );
+  const top = Math.min(1, yTicks.at(-1)!);
+  const places = placeLabels(
+    props.points,
+    (n) => n / hi,
+    (r) => 1 - r / top,
   );
   const byBand = (band: FairnessBand) =>
     props.points.filter((p) => p.band === band).map((p) => ({ ...p, n: p.trials }));
+  const digits = top < 0.2 ? 1 : 0;
   return (
     <div style={{ height: props.height ?? 360 }}>
       <ResponsiveContainer width="100%" height="100%">
-        <ComposedChart data={curves} margin={{ top: 12, right: 96, bottom: 28, left: 8 }}>
+        <ComposedChart data={curves} margin={{ top: 16, right: 110, bottom: 28, left: 8 }}>
           <CartesianGrid stroke="#e9e0cd" strokeDasharray="3 3" />
           <XAxis
             dataKey="n"
             type="number"
-            domain={[lo, hi]}
+            domain={[0, hi]}
+            ticks={xTicks}
             tick={{ fill: '#475569', fontSize: 12 }}
             label={{
               value: props.xLabel,
@@ -108,14 +166,11 @@ export function FunnelChart(props: {
           <YAxis
             type="number"
             domain={[0, top]}
-            tickFormatter={pct}
+            ticks={yTicks}
+            tickFormatter={(x: number) => `${(x * 100).toFixed(digits)}%`}
             tick={{ fill: '#475569', fontSize: 12 }}
-            width={48}
+            width={52}
             allowDataOverflow
-          />
-          <Tooltip
-            formatter={(value: number, name: string) => [pct(Number(value)), name]}
-            labelFormatter={(n: number) => `Volume ${n}`}
           />
           <Line
             dataKey="upper998"
@@ -171,9 +226,32 @@ export function FunnelChart(props: {
             >
               <LabelList
                 dataKey="label"
-                position="right"
-                offset={8}
-                style={{ fill: '#0f172a', fontSize: 12, fontWeight: 500 }}
+                content={(l: {
+                  x?: number | string;
+                  y?: number | string;
+                  width?: number | string;
+                  height?: number | string;
+                  index?: number;
+                  value?: unknown;
+                }) => {
+                  const p = byBand(band)[l.index ?? 0];
+                  if (!p || l.x == null || l.y == null) return null;
+                  const o = OFFSET[places.get(p.id) ?? 'right'];
+                  const cx = Number(l.x) + Number(l.width ?? 0) / 2;
+                  const cy = Number(l.y) + Number(l.height ?? 0) / 2;
+                  return (
+                    <text
+                      x={cx + o.dx}
+                      y={cy + o.dy}
+                      textAnchor={o.anchor}
+                      fill="#0f172a"
+                      fontSize={12}
+                      fontWeight={500}
+                    >
+                      {String(l.value)}
+                    </text>
+                  );
+                }}
               />
             </Scatter>
           ))}

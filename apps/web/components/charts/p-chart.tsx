@@ -9,6 +9,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
+import { niceTicks } from './ticks';
 
 export interface PChartDatum {
   label: string;
@@ -25,8 +26,6 @@ export const P_CHART_COLOURS = {
   signal: '#a03c28',
 };
 
-const pct = (x: number) => `${(x * 100).toFixed(0)}%`;
-
 /**
  * A p-chart: the monthly rate, its centre line, and the 3-sigma limits for each month's own
  * volume (drawn as steps). Months outside the limits are drawn as larger brick-red diamonds.
@@ -38,10 +37,16 @@ export function PChart(props: {
   height?: number;
 }) {
   const data = props.points.map((p) => ({ ...p, center: props.center }));
-  const top = Math.min(
-    1,
-    Math.max(props.center * 2, ...data.map((d) => Math.max(d.rate ?? 0, d.upper ?? 0))) * 1.08,
+  const ticks = niceTicks(
+    Math.min(
+      1,
+      Math.max(props.center * 2, ...data.map((d) => Math.max(d.rate ?? 0, d.upper ?? 0))),
+    ),
+    4,
   );
+  const top = Math.min(1, ticks.at(-1)!);
+  // Whole percents only when the scale is wide enough for them not to round ticks together.
+  const pct = (x: number) => `${(x * 100).toFixed(top < 0.2 ? 1 : 0)}%`;
   return (
     <div style={{ height: props.height ?? 200 }}>
       <ResponsiveContainer width="100%" height="100%">

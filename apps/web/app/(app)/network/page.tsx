@@ -57,7 +57,6 @@ export default async function NetworkPage(props: {
             params={params}
             trendParams={trendParams}
             today={today}
-            unit={view.units}
             invalid={view.invalid}
           />
         </HydrationBoundary>

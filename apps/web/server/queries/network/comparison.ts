@@ -18,12 +18,7 @@ import {
   type NetworkShop,
   type QueryContext,
 } from './context';
-import type {
-  NetworkComparisonResult,
-  NetworkTotals,
-  RateFigures,
-  ShopFigures,
-} from './types';
+import type { NetworkComparisonResult, NetworkTotals, RateFigures, ShopFigures } from './types';
 
 /** One shop's counts for a period, straight from the aggregate. */
 export interface ShopCounts {

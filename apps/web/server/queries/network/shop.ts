@@ -6,13 +6,7 @@ import { notFound } from '../../errors';
 import type { Principal } from '../../principal';
 import { computeNetwork } from './comparison';
 import { resolveContext, type QueryContext } from './context';
-import type {
-  HistogramBin,
-  OpenJob,
-  RevenueGroup,
-  ShopComeback,
-  ShopMetricsResult,
-} from './types';
+import type { HistogramBin, OpenJob, RevenueGroup, ShopComeback, ShopMetricsResult } from './types';
 
 type Row = Record<string, unknown>;
 
@@ -172,7 +166,7 @@ async function openWork(conn: Db, shopId: number, asOf: Date) {
     join customers c on c.id = j.customer_id
     join reels r on r.id = j.reel_id
     left join users u on u.id = j.technician_id
-    where j.shop_id = ${shopId} and j.state in ('checked_in', 'on_bench', 'waiting_parts', 'ready')
+    where j.shop_id = ${shopId} and j.state in ('checked_in', 'on_bench', 'waiting_parts')
     order by j.checked_in_at asc, j.id asc
     limit 10`);
   const openCounts: ShopMetricsResult['openCounts'] = {

@@ -210,7 +210,8 @@ export async function networkTrends(
   if (query.region !== undefined && !shops.some((s) => s.region.id === query.region)) {
     throw notFound('region');
   }
-  const shown = query.region === undefined ? shops : shops.filter((s) => s.region.id === query.region);
+  const shown =
+    query.region === undefined ? shops : shops.filter((s) => s.region.id === query.region);
   return trendsFor(conn, shown, query.metric, { from: query.from, to: query.to }, asOf);
 }
 

@@ -94,9 +94,20 @@ export interface ShopFigures {
 export interface NetworkTotals {
   shops: number;
   jobsReady: number;
-  comebacks: { events: number; trials: number; collected: number; censored: number; rate: number | null };
+  comebacks: {
+    events: number;
+    trials: number;
+    collected: number;
+    censored: number;
+    rate: number | null;
+  };
   audits: { events: number; trials: number; rounds: number; rate: number | null };
-  revenue: { revenueCents: number; labourCents: number; benchMinutes: number; perBenchHourCents: number | null };
+  revenue: {
+    revenueCents: number;
+    labourCents: number;
+    benchMinutes: number;
+    perBenchHourCents: number | null;
+  };
   correctiveActions: { open: number; overdue: number };
 }
 
@@ -206,6 +217,8 @@ export interface ShopMetricsResult {
   comebacks: ShopComeback[];
   byTechnician: RevenueGroup[];
   byServiceType: RevenueGroup[];
+  /** Jobs not collected yet, by state, now. */
   openCounts: Record<OpenJob['state'], number>;
+  /** Work not yet ready (checked in, on the bench, waiting on parts), oldest check-in first. */
   openLongest: OpenJob[];
 }

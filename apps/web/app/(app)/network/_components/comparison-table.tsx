@@ -177,7 +177,11 @@ export function ComparisonTable(props: {
       cell: ({ row }) => {
         const a = row.original.audits;
         if (a.rounds === 0)
-          return <span className="text-sm text-slate-600">No audit rounds yet</span>;
+          return (
+            <Explain text={auditText(row.original)} className="text-slate-600">
+              No rounds yet
+            </Explain>
+          );
         return (
           <div className="flex flex-col items-end gap-1">
             <Explain text={auditText(row.original)}>
@@ -258,7 +262,7 @@ export function ComparisonTable(props: {
         </button>
       </div>
       <div className="overflow-x-auto">
-        <table className="w-full min-w-[60rem] text-left">
+        <table className="w-full min-w-[58rem] text-left text-sm xl:text-base">
           <caption className="sr-only">{props.caption}</caption>
           <thead>
             {table.getHeaderGroups().map((group) => (
@@ -313,7 +317,7 @@ export function ComparisonTable(props: {
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </th>
                   ) : (
-                    <td key={cell.id} className="num px-2 py-3">
+                    <td key={cell.id} className="num px-2 py-3 whitespace-nowrap">
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   ),

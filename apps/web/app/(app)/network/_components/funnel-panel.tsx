@@ -117,7 +117,7 @@ export function FunnelPanel({ data }: { data: NetworkComparisonResult }) {
   const auditRate = data.network.audits.rate;
   const withComebacks = data.shops.filter((s) => s.comebacks.trials > 0);
   return (
-    <div className="grid gap-8">
+    <div className="grid grid-cols-[minmax(0,1fr)] gap-8">
       {comebackRate === null || withComebacks.length === 0 ? (
         <p className="text-slate-600">
           No collected job in this period has a closed warranty window yet, so there is no comeback

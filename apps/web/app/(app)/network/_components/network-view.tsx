@@ -3,15 +3,15 @@
 import { useQuery } from '@tanstack/react-query';
 import { Panel } from '~/components/ui';
 import { comparisonQuery, networkTrendsQuery, type PeriodParams } from '~/lib/queries/network';
-import type { TurnaroundUnit } from '~/lib/validators/network';
 import { ComparisonTable } from './comparison-table';
+import { Explain } from './explain';
 import { CensoringNote } from './censoring-note';
 import { formatCount, formatMoney, formatPercent } from './format';
 import { FunnelPanel } from './funnel-panel';
 import { PeriodPicker } from './period-picker';
 import { formatMonth, formatPeriod } from './periods';
 import { ComebackPCharts, RevenueTrend, TurnaroundTrend } from './trend-charts';
-import { UnitsToggle } from './units-toggle';
+import { UnitsToggle, useUnit } from './units-toggle';
 
 function Loading({ what }: { what: string }) {
   return <p className="text-slate-600">Loading {what}…</p>;
@@ -30,9 +30,9 @@ export function NetworkView(props: {
   params: PeriodParams;
   trendParams: PeriodParams;
   today: string;
-  unit: TurnaroundUnit;
   invalid: boolean;
 }) {
+  const unit = useUnit();
   const comparison = useQuery(comparisonQuery(props.params));
   const pTrend = useQuery(networkTrendsQuery(props.trendParams, 'comebacks'));
   const tTrend = useQuery(networkTrendsQuery(props.trendParams, 'turnaround'));
@@ -51,7 +51,7 @@ export function NetworkView(props: {
         to={data.period.to}
         today={props.today}
         seasons={seasons}
-        units={props.unit}
+        units={unit}
         region={props.params.region}
         regions={data.regions.length > 1 ? data.regions : undefined}
       />
@@ -69,17 +69,25 @@ export function NetworkView(props: {
           label="Shops shown"
           value={formatCount(data.view.shops)}
           hint={data.region ? data.region.name : `of ${data.network.shops} in the network`}
+          explain={`The shops in your view${data.region ? ` in ${data.region.name}` : ''}; each is still judged against all ${data.network.shops} shops of the network.`}
         />
-        <Fact label="Jobs ready" value={formatCount(data.view.jobsReady)} hint={period} />
+        <Fact
+          label="Jobs ready"
+          value={formatCount(data.view.jobsReady)}
+          hint={period}
+          explain="Jobs of the shops shown that became ready for pickup in the period, each in its shop's own time zone."
+        />
         <Fact
           label="Network comeback rate"
           value={formatPercent(data.network.comebacks.rate)}
           hint={`${formatCount(data.network.comebacks.events)} of ${formatCount(data.network.comebacks.trials)} jobs, all ${data.network.shops} shops`}
+          explain={`Comebacks for ${data.settings.countedAttributions.map((a) => a.replace('_', ' ')).join(' or ')} over the jobs counted at every shop of the network: the rate each shop is judged against.`}
         />
         <Fact
           label="Network revenue per bench hour"
           value={formatMoney(data.network.revenue.perBenchHourCents)}
           hint="Labour + parts − discount"
+          explain="Billed revenue of every shop's jobs that became ready in the period, over all their logged bench hours."
         />
       </dl>
       <CensoringNote
@@ -88,19 +96,15 @@ export function NetworkView(props: {
         warrantyDays={data.settings.warrantyDays}
         to={data.period.to}
       />
-      <div className="grid gap-8">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-8">
         <Panel
           title="Shops side by side"
           description={`${period}. Each figure counts the shop's own jobs in its own time zone.`}
         >
           <div className="mb-2">
-            <UnitsToggle unit={props.unit} />
+            <UnitsToggle />
           </div>
-          <ComparisonTable
-            data={data}
-            unit={props.unit}
-            caption={`Shops side by side, ${period}`}
-          />
+          <ComparisonTable data={data} unit={unit} caption={`Shops side by side, ${period}`} />
         </Panel>
         <Panel
           title="Fair comparison: rate against volume"
@@ -112,7 +116,7 @@ export function NetworkView(props: {
           title={`Trends, ${span}`}
           description="The twelve months to the end of the period, month by month in each shop's time zone."
         >
-          <div className="grid gap-10">
+          <div className="grid grid-cols-[minmax(0,1fr)] gap-10">
             <section aria-labelledby="trend-comebacks-heading">
               <h3 id="trend-comebacks-heading" className="sr-only">
                 Monthly comeback rate per shop
@@ -130,7 +134,7 @@ export function NetworkView(props: {
             ) : tTrend.isError ? (
               <Failed error={tTrend.error} />
             ) : tTrend.data.metric === 'turnaround' ? (
-              <TurnaroundTrend result={tTrend.data} unit={props.unit} span={span} />
+              <TurnaroundTrend result={tTrend.data} unit={unit} span={span} />
             ) : null}
             {rTrend.isPending ? (
               <Loading what="the revenue trend" />
@@ -146,11 +150,13 @@ export function NetworkView(props: {
   );
 }
 
-function Fact(props: { label: string; value: string; hint?: string }) {
+function Fact(props: { label: string; value: string; hint?: string; explain: string }) {
   return (
     <div className="rounded-lg border border-sand-200 bg-white px-4 py-3 shadow-sm">
       <dt className="text-sm font-medium text-slate-600">{props.label}</dt>
-      <dd className="mt-1 text-2xl font-semibold text-slate-900 tabular-nums">{props.value}</dd>
+      <dd className="mt-1 text-2xl font-semibold text-slate-900 tabular-nums">
+        <Explain text={props.explain}>{props.value}</Explain>
+      </dd>
       {props.hint && <dd className="mt-0.5 text-sm text-slate-600">{props.hint}</dd>}
     </div>
   );

@@ -39,7 +39,13 @@ function SeriesLegend({ names }: { names: string[] }) {
 export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; span: string }) {
   const single = result.shops.length === 1;
   return (
-    <div className={single ? '' : 'grid gap-8 lg:grid-cols-2'}>
+    <div
+      className={
+        single
+          ? ''
+          : 'grid grid-cols-[minmax(0,1fr)] gap-8 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]'
+      }
+    >
       {result.shops.map(({ shop, center, points }) => {
         const id = `pchart-${shop.id}`;
         const title = `${shop.name}: monthly comeback rate, ${span} (p-chart)`;

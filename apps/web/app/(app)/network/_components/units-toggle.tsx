@@ -1,18 +1,25 @@
 'use client';
 
-import { usePathname, useRouter, useSearchParams } from 'next/navigation';
+import { useSearchParams } from 'next/navigation';
 import type { TurnaroundUnit } from '~/lib/validators/network';
 
-/** Business hours or business days for turnaround; kept in the address with the period. */
-export function UnitsToggle({ unit }: { unit: TurnaroundUnit }) {
-  const router = useRouter();
-  const pathname = usePathname();
+/** The turnaround unit in the address (`units=days`), business hours by default. */
+export function useUnit(): TurnaroundUnit {
+  return useSearchParams().get('units') === 'days' ? 'days' : 'hours';
+}
+
+/**
+ * Business hours or business days for turnaround. Only the display changes, so the address is
+ * updated in place (shareable) without asking the server again.
+ */
+export function UnitsToggle() {
+  const unit = useUnit();
   const search = useSearchParams();
   const choose = (next: TurnaroundUnit) => {
     const q = new URLSearchParams(search.toString());
     if (next === 'hours') q.delete('units');
     else q.set('units', next);
-    router.replace(`${pathname}?${q.toString()}`, { scroll: false });
+    window.history.replaceState(null, '', `?${q.toString()}`);
   };
   return (
     <fieldset className="flex flex-wrap items-center gap-x-3 gap-y-1">

@@ -62,7 +62,6 @@ export default async function ShopPage(props: {
             period={period}
             trend={trend}
             today={today}
-            unit={view.units}
             invalid={view.invalid}
           />
         </HydrationBoundary>

@@ -2,7 +2,7 @@
 
 import { useQuery } from '@tanstack/react-query';
 import Link from 'next/link';
-import type { ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import { ChartFigure, FigureTable, LegendItem } from '~/components/charts/chart-figure';
 import { CompareBars } from '~/components/charts/compare-bars';
 import { HISTOGRAM_COLOURS, HistogramChart } from '~/components/charts/histogram-chart';
@@ -44,7 +44,7 @@ import {
   RevenueTrend,
   TurnaroundTrend,
 } from '../../../network/_components/trend-charts';
-import { UnitsToggle } from '../../../network/_components/units-toggle';
+import { UnitsToggle, useUnit } from '../../../network/_components/units-toggle';
 
 const ATTRIBUTION_LABELS: Record<string, string> = {
   workmanship: 'Workmanship',
@@ -215,21 +215,24 @@ function Histograms({ m, unit }: { m: ShopMetricsResult; unit: TurnaroundUnit })
     );
   };
   return (
-    <div className="grid gap-8 lg:grid-cols-2">
+    <div className="grid grid-cols-[minmax(0,1fr)] gap-8 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
       {fig('customer')}
       {fig('bench')}
     </div>
   );
 }
 
+const COMEBACKS_SHOWN = 12;
+
 function Comebacks({ m, benchHref }: { m: ShopMetricsResult; benchHref: (id: number) => string }) {
-  const rows = m.comebacks;
+  const [all, setAll] = useState(false);
+  const rows = all ? m.comebacks : m.comebacks.slice(0, COMEBACKS_SHOWN);
   const period = formatPeriod(m.period.from, m.period.to);
   if (rows.length === 0) {
     return <p className="text-slate-600">No job collected in {period} has come back so far.</p>;
   }
   const byAttribution = new Map<string, number>();
-  for (const r of rows) {
+  for (const r of m.comebacks) {
     const key = r.status === 'confirmed' ? (r.attribution ?? 'undetermined') : r.status;
     byAttribution.set(key, (byAttribution.get(key) ?? 0) + 1);
   }
@@ -243,8 +246,8 @@ function Comebacks({ m, benchHref }: { m: ShopMetricsResult; benchHref: (id: num
   return (
     <>
       <p className="mb-3 text-slate-700">
-        {formatCount(rows.length)} return{rows.length === 1 ? '' : 's'}: {summary}. Those marked
-        “counts” are the events of the comeback rate.
+        {formatCount(m.comebacks.length)} return{m.comebacks.length === 1 ? '' : 's'}: {summary}.
+        Those marked “counts” are the events of the comeback rate; latest first.
       </p>
       <div className="overflow-x-auto">
         <table className="w-full min-w-[52rem] text-left">
@@ -314,6 +317,18 @@ function Comebacks({ m, benchHref }: { m: ShopMetricsResult; benchHref: (id: num
           </tbody>
         </table>
       </div>
+      {m.comebacks.length > COMEBACKS_SHOWN && (
+        <button
+          type="button"
+          onClick={() => setAll(!all)}
+          aria-expanded={all}
+          className="mt-3 min-h-11 rounded-md border border-sea-700 px-4 font-medium text-sea-800 hover:bg-sea-50"
+        >
+          {all
+            ? `Show the latest ${COMEBACKS_SHOWN}`
+            : `Show all ${formatCount(m.comebacks.length)}`}
+        </button>
+      )}
     </>
   );
 }
@@ -419,11 +434,15 @@ function OpenWork({
         </li>
       </ul>
       {m.openLongest.length === 0 ? (
-        <p className="py-4 text-slate-600">No open jobs. Every reel is collected.</p>
+        <p className="py-4 text-slate-600">
+          No work in progress: every reel is ready for pickup or collected.
+        </p>
       ) : (
         <div className="overflow-x-auto">
           <table className="w-full min-w-[44rem] text-left">
-            <caption className="sr-only">Open jobs at {name}, open longest first</caption>
+            <caption className="sr-only">
+              Open jobs at {name} not yet ready, open longest first
+            </caption>
             <thead>
               <tr className="border-b border-sand-300 text-sm text-slate-600">
                 <th scope="col" className="py-2 pr-4 font-medium">
@@ -489,9 +508,9 @@ export function ShopView(props: {
   period: PeriodParams;
   trend: PeriodParams;
   today: string;
-  unit: TurnaroundUnit;
   invalid: boolean;
 }) {
+  const unit = useUnit();
   const metrics = useQuery(shopMetricsQuery(props.shopId, props.period));
   const pTrend = useQuery(shopTrendsQuery(props.shopId, props.trend, 'comebacks'));
   const tTrend = useQuery(shopTrendsQuery(props.shopId, props.trend, 'turnaround'));
@@ -516,7 +535,7 @@ export function ShopView(props: {
         to={m.period.to}
         today={props.today}
         seasons={[{ start: shop.seasonStart, end: shop.seasonEnd }]}
-        units={props.unit}
+        units={unit}
       />
       {props.invalid && (
         <p
@@ -533,32 +552,32 @@ export function ShopView(props: {
         warrantyDays={m.settings.warrantyDays}
         to={m.period.to}
       />
-      <div className="grid gap-8">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-8">
         <Panel
           title={`Figures for ${period}`}
           description={`Judged against the whole network of ${m.network.shops} shops. Hover over or focus a figure for what it means.`}
         >
           <div className="mb-3">
-            <UnitsToggle unit={props.unit} />
+            <UnitsToggle />
           </div>
-          <Figures m={m} unit={props.unit} />
+          <Figures m={m} unit={unit} />
         </Panel>
         <Panel
           title="How long jobs took"
           description="Turnaround of the jobs that became ready in the period, in opening time only."
         >
-          <Histograms m={m} unit={props.unit} />
+          <Histograms m={m} unit={unit} />
         </Panel>
         <Panel
           title={`Over time, ${span}`}
           description="The twelve months to the end of the period, in the shop's time zone."
         >
-          <div className="grid gap-10">
+          <div className="grid grid-cols-[minmax(0,1fr)] gap-10">
             {pTrend.data?.metric === 'comebacks' && (
               <ComebackPCharts result={pTrend.data} span={span} />
             )}
             {tTrend.data?.metric === 'turnaround' && (
-              <TurnaroundTrend result={tTrend.data} unit={props.unit} span={span} />
+              <TurnaroundTrend result={tTrend.data} unit={unit} span={span} />
             )}
             {rTrend.data?.metric === 'revenue' && <RevenueTrend result={rTrend.data} span={span} />}
             {(pTrend.isPending || tTrend.isPending || rTrend.isPending) && (
@@ -576,7 +595,7 @@ export function ShopView(props: {
           title="Revenue per bench hour"
           description={`Jobs that became ready in ${period}: billed revenue over logged bench time.`}
         >
-          <div className="grid gap-8 lg:grid-cols-2">
+          <div className="grid grid-cols-[minmax(0,1fr)] gap-8 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
             <RevenueGroups
               id="revenue-technician"
               title={`Revenue per bench hour by technician, ${period}`}
@@ -592,8 +611,8 @@ export function ShopView(props: {
           </div>
         </Panel>
         <Panel
-          title="Open work, open longest first"
-          description="Reels not yet collected, now. Each count opens the bench list filtered to it."
+          title="Open work"
+          description="Reels not yet collected, now; each count opens the bench list filtered to it. Below, the work not yet ready that has been in the shop longest."
         >
           <OpenWork m={m} shopId={props.shopId} benchHref={benchHref} />
         </Panel>

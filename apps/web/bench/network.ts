@@ -1,0 +1,262 @@
+// `pnpm bench`: how fast the network comparison stays on a large network. Builds a synthetic
+// network (default 60 shops, 3 years, 1,000,000 jobs) in a temporary PGlite folder, and on the
+// PostgreSQL database given by --pg-url (the `bench` script passes BENCH_DATABASE_URL), then times
+// one quarter across all shops three ways: the API handler's query function, the single bare SQL
+// aggregate reading the same rows (the floor), and loading those rows into JS and computing there
+// with the metrics engine (the naive way). Medians of several runs; figures printed, never asserted.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import { sql, type Db } from '@reelwright/db';
+import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
+import {
+  comebackRate,
+  compareShops,
+  onTimeShare,
+  rateRealisation,
+  revenuePerBenchHour,
+  turnaroundSummary,
+  type ComebackAttribution,
+} from '@reelwright/metrics';
+import type { Principal } from '~/server/principal';
+import { networkComparison } from '~/server/queries/network';
+import { generateNetwork } from './generate';
+
+const { values: args } = parseArgs({
+  options: {
+    'pg-url': { type: 'string', default: '' },
+    shops: { type: 'string', default: '60' },
+    years: { type: 'string', default: '3' },
+    jobs: { type: 'string', default: '1000000' },
+    runs: { type: 'string', default: '7' },
+    'naive-runs': { type: 'string', default: '3' },
+    'skip-pglite': { type: 'boolean', default: false },
+  },
+});
+
+const NOW = new Date('2026-12-01T12:00:00Z');
+// The latest quarter whose 90-day warranty windows have all closed by NOW.
+const PERIOD = { from: '2026-04-01', to: '2026-06-30' };
+const WARRANTY_DAYS = 90;
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+};
+
+async function time(runs: number, fn: () => Promise<unknown>) {
+  await fn(); // warm caches and plans
+  const out: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    const t = performance.now();
+    await fn();
+    out.push(performance.now() - t);
+  }
+  return median(out);
+}
+
+// Each shop's quarter, [from, to + 1 day) in its own zone, as the handler reads it.
+const bounds = sql`
+  select x.id, (${PERIOD.from}::date::timestamp at time zone x.time_zone) as t0,
+    ((${PERIOD.to}::date + 1)::timestamp at time zone x.time_zone) as t1
+  from shops x`;
+
+/**
+ * The floor: one statement touching the same rows as the handler (jobs ready in the quarter, jobs
+ * collected in it with their comebacks, the audit samples of rounds ending in it) with nothing
+ * but counts and sums, through the same (shop, instant) indexes.
+ */
+async function floor(db: Db) {
+  return db.execute(sql`
+    with s as (${bounds})
+    select s.id, r.n, r.minutes, r.money, c.n as collected, c.backs, a.n as samples
+    from s
+    cross join lateral (
+      select count(*) as n,
+        sum(j.customer_turnaround_minutes + j.bench_turnaround_minutes + j.waiting_parts_minutes) as minutes,
+        sum(j.labour_cents + j.parts_cents - j.discount_cents + j.bench_minutes) as money
+      from jobs j where j.shop_id = s.id and j.ready_at >= s.t0 and j.ready_at < s.t1) r
+    cross join lateral (
+      select count(*) as n, count(cb.id) as backs
+      from jobs j left join comebacks cb on cb.original_job_id = j.id
+      where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1) c
+    cross join lateral (
+      select count(sm.id) as n from audit_rounds ar join audit_samples sm on sm.round_id = ar.id
+      where ar.shop_id = s.id and ar.period_end between ${PERIOD.from}::date and ${PERIOD.to}::date) a`);
+}
+
+type Row = Record<string, unknown>;
+const toDate = (v: unknown) => (v == null ? null : new Date(v as string | Date));
+
+/** The naive way: fetch the period's rows and compute every figure in JS with the metrics engine. */
+async function naive(db: Db) {
+  const ready = await db.execute<Row>(sql`
+    with s as (${bounds})
+    select j.shop_id, j.customer_turnaround_minutes as c, j.bench_turnaround_minutes as b,
+      j.ready_at, j.promised_at, j.labour_cents, j.parts_cents, j.discount_cents, j.bench_minutes
+    from s join jobs j on j.shop_id = s.id and j.ready_at >= s.t0 and j.ready_at < s.t1`);
+  const collected = await db.execute<Row>(sql`
+    with s as (${bounds})
+    select j.id, j.shop_id, j.collected_at, cb.attribution::text as attribution, cb.detected_at
+    from s join jobs j on j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
+    left join comebacks cb on cb.original_job_id = j.id and cb.status = 'confirmed'`);
+  const audits = await db.execute<Row>(sql`
+    select ar.shop_id, sm.verdict::text as verdict from audit_rounds ar
+    join audit_samples sm on sm.round_id = ar.id
+    where ar.period_end between ${PERIOD.from}::date and ${PERIOD.to}::date`);
+  const shopRows = await db.execute<Row>(sql`select id, labour_rate_cents from shops order by id`);
+  const byShop = <T>(rows: Row[], f: (r: Row) => T) => {
+    const m = new Map<number, T[]>();
+    for (const r of rows) {
+      const k = Number(r.shop_id);
+      const list = m.get(k) ?? [];
+      list.push(f(r));
+      m.set(k, list);
+    }
+    return m;
+  };
+  const readyBy = byShop(ready.rows, (r) => r);
+  const jobsBy = new Map<number, Map<number, { collectedAt: Date; comebacks: { attribution: ComebackAttribution; reportedAt: Date }[] }>>();
+  for (const r of collected.rows) {
+    const shop = jobsBy.get(Number(r.shop_id)) ?? new Map();
+    jobsBy.set(Number(r.shop_id), shop);
+    const job = shop.get(Number(r.id)) ?? { collectedAt: toDate(r.collected_at)!, comebacks: [] };
+    shop.set(Number(r.id), job);
+    if (r.attribution) job.comebacks.push({ attribution: r.attribution as ComebackAttribution, reportedAt: toDate(r.detected_at)! });
+  }
+  const auditsBy = byShop(audits.rows, (r) => r.verdict);
+  const out = shopRows.rows.map((s) => {
+    const id = Number(s.id);
+    const rows = readyBy.get(id) ?? [];
+    const n = (v: unknown) => Number(v ?? 0);
+    const money = rows.map((r) => ({
+      revenueCents: n(r.labour_cents) + n(r.parts_cents) - n(r.discount_cents),
+      labourCents: n(r.labour_cents),
+      benchMinutes: n(r.bench_minutes),
+    }));
+    const verdicts = auditsBy.get(id) ?? [];
+    return {
+      id,
+      jobsReady: rows.length,
+      customer: turnaroundSummary(rows.filter((r) => r.c != null).map((r) => n(r.c))),
+      bench: turnaroundSummary(rows.filter((r) => r.b != null).map((r) => n(r.b))),
+      onTime: onTimeShare(rows.map((r) => ({ readyAt: toDate(r.ready_at), promisedAt: toDate(r.promised_at) }))),
+      perHour: revenuePerBenchHour(money),
+      realisation: rateRealisation(money, n(s.labour_rate_cents)),
+      comebacks: comebackRate([...(jobsBy.get(id)?.values() ?? [])], { asOf: NOW, warrantyDays: WARRANTY_DAYS }),
+      audits: { events: verdicts.filter((v) => v !== 'meets_standard').length, trials: verdicts.length },
+    };
+  });
+  compareShops(out.map((s) => ({ shopId: String(s.id), ...s.comebacks })));
+  compareShops(out.map((s) => ({ shopId: String(s.id), ...s.audits })));
+  return { out, rows: ready.rows.length + collected.rows.length + audits.rows.length };
+}
+
+async function measure(label: string, handle: DbHandle) {
+  const db = handle.db;
+  const owner: Principal = {
+    id: 1,
+    name: 'Bench owner',
+    email: 'bench-owner@bench.test',
+    role: 'owner',
+    shopId: null,
+    regionId: null,
+    scope: { kind: 'network' },
+  };
+  const runs = Number(args.runs);
+  const handler = await time(runs, () => networkComparison(owner, PERIOD, { db, asOf: NOW }));
+  const bare = await time(runs, () => floor(db));
+  let loaded = 0;
+  const slow = await time(Number(args['naive-runs']), async () => {
+    loaded = (await naive(db)).rows;
+  });
+
+  // The handler and the naive way must agree, or the comparison means nothing.
+  const fast = await networkComparison(owner, PERIOD, { db, asOf: NOW });
+  const check = (await naive(db)).out;
+  for (const s of fast.shops) {
+    const n = check.find((c) => c.id === s.shop.id)!;
+    const same =
+      s.comebacks.events === n.comebacks.events &&
+      s.comebacks.trials === n.comebacks.trials &&
+      s.jobsReady === n.jobsReady &&
+      s.onTime.onTime === n.onTime.onTime &&
+      s.audits.events === n.audits.events &&
+      Math.abs((s.customerTurnaround.p90 ?? 0) - (n.customer.p90 ?? 0)) < 1e-6 &&
+      Math.abs((s.revenue.perBenchHourCents ?? 0) - (n.perHour ?? 0)) < 1e-6;
+    if (!same) throw new Error(`${label}: handler and naive figures differ for shop ${s.shop.id}`);
+  }
+  const { rows } = await db.execute<{ n: number | string }>(sql`select count(*) as n from jobs`);
+  console.log(`\n${label}: ${Number(rows[0]!.n).toLocaleString('en-US')} jobs, ${fast.shops.length} shops, quarter ${PERIOD.from} – ${PERIOD.to}`);
+  console.log(`  rows the quarter reads:     ${loaded.toLocaleString('en-US')} (jobs ready, jobs collected with comebacks, audit samples)`);
+  console.log(`  API handler query function: ${handler.toFixed(1)} ms (median of ${runs})`);
+  console.log(`  bare SQL aggregate (floor): ${bare.toFixed(1)} ms (median of ${runs})`);
+  console.log(`  naive load + JS compute:    ${slow.toFixed(1)} ms (median of ${args['naive-runs']})`);
+  console.log(`  handler ÷ floor:            ${(handler / bare).toFixed(2)}×  (target ≤ 2×)`);
+  console.log(`  naive ÷ handler:            ${(slow / handler).toFixed(1)}×  (target ≥ 20×)`);
+  return { label, handler, bare, slow };
+}
+
+async function build(handle: DbHandle, label: string) {
+  await migrate(handle.db, handle.driver);
+  const t = performance.now();
+  const total = Number(args.jobs);
+  let last = 0;
+  const result = await generateNetwork(handle.db, {
+    shops: Number(args.shops),
+    years: Number(args.years),
+    jobs: total,
+    now: NOW,
+    onProgress: (done) => {
+      if (done - last >= total / 10 || done === total) {
+        last = done;
+        process.stdout.write(`\r${label}: generated ${done.toLocaleString('en-US')} of ${total.toLocaleString('en-US')} jobs`);
+      }
+    },
+  });
+  console.log(`\n${label}: built in ${((performance.now() - t) / 1000).toFixed(0)} s`);
+  return result;
+}
+
+async function main() {
+  const results = [];
+  if (!args['skip-pglite']) {
+    const folder = mkdtempSync(path.join(tmpdir(), 'reelwright-bench-'));
+    const handle = await openDb({ dataDir: path.join(folder, 'pglite') });
+    try {
+      await build(handle, 'PGlite');
+      results.push(await measure('PGlite', handle));
+    } finally {
+      await handle.close();
+      rmSync(folder, { recursive: true, force: true });
+    }
+  }
+  if (args['pg-url']) {
+    const handle = await openDb({ url: args['pg-url'], maxConnections: 4 });
+    try {
+      const { rows } = await handle.db.execute<{ n: number | string }>(
+        sql`select count(*) as n from information_schema.tables where table_schema = 'public'`,
+      );
+      if (Number(rows[0]?.n ?? 0) > 0) {
+        throw new Error('The PostgreSQL database for the benchmark must be empty: it is filled and left as is.');
+      }
+      await build(handle, 'PostgreSQL');
+      await handle.db.execute(sql`vacuum analyze`);
+      results.push(await measure('PostgreSQL', handle));
+    } finally {
+      await handle.close();
+    }
+  } else {
+    console.log('\n(Set BENCH_DATABASE_URL to an empty PostgreSQL database to measure there too.)');
+  }
+  console.log('\nsummary (ms): engine | handler | floor | naive | handler÷floor | naive÷handler');
+  for (const r of results) {
+    console.log(
+      `  ${r.label} | ${r.handler.toFixed(1)} | ${r.bare.toFixed(1)} | ${r.slow.toFixed(1)} | ${(r.handler / r.bare).toFixed(2)} | ${(r.slow / r.handler).toFixed(1)}`,
+    );
+  }
+}
+
+await main();
