@@ -142,7 +142,9 @@ export function RemindersView({ shopId, initialWeeks }: { shopId: number; initia
             </button>
           ) : (
             <div className="flex flex-wrap items-center gap-3 rounded-md border border-brass-300 bg-brass-50 p-3">
-              <p className="font-medium text-slate-900">E-mail {count(toSend, 'customer')} now?</p>
+              <p className="font-medium text-slate-900">
+                Send {count(toSend, 'reminder e-mail')} now?
+              </p>
               <button
                 type="button"
                 className={primary}
