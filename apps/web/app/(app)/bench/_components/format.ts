@@ -33,3 +33,13 @@ export function moveLabel(from: JobState, to: JobState) {
 
 export const USE_LABELS: Record<string, string> = { light: 'Light use', heavy: 'Hard use' };
 export const WATER_LABELS: Record<string, string> = { salt: 'Salt water', fresh: 'Fresh water' };
+
+const civil = new Intl.DateTimeFormat('en-GB', {
+  day: 'numeric',
+  month: 'short',
+  year: 'numeric',
+  timeZone: 'UTC',
+});
+
+/** A local date "YYYY-MM-DD" as "8 Apr 2026" (a calendar date: no time zone shift). */
+export const formatCivilDate = (date: string) => civil.format(new Date(`${date}T12:00:00Z`));

@@ -367,9 +367,18 @@ export function ImportScreen(props: {
                 fraction={phase.done / phase.total}
               />
             )}
-            {phase.kind === 'sending' && (
-              <Progress label="Sending the file" fraction={phase.fraction} />
-            )}
+            {phase.kind === 'sending' &&
+              (phase.fraction < 1 ? (
+                <Progress label="Sending the file" fraction={phase.fraction} />
+              ) : (
+                <div className="max-w-xl">
+                  <p className="text-slate-800">The server is checking every row…</p>
+                  <progress
+                    aria-label="The server is checking every row"
+                    className="mt-1 h-3 w-full accent-sea-700"
+                  />
+                </div>
+              ))}
             {phase.kind === 'storing' && (
               <Progress
                 label={`Storing jobs: ${formatCount(phase.done)} of ${formatCount(phase.total)}`}

@@ -20,7 +20,7 @@ import {
   reelInput,
   SERVICE_TYPES,
 } from '~/lib/validators/jobs';
-import { USE_LABELS, WATER_LABELS } from '../../_components/format';
+import { formatCivilDate, USE_LABELS, WATER_LABELS } from '../../_components/format';
 
 interface Props {
   technicians: { id: number; name: string }[];
@@ -388,7 +388,9 @@ export function CheckInForm({ technicians, me, suggestion }: Props) {
                     <span className="block text-sm text-slate-700">
                       {REEL_KIND_LABELS[r.kind as keyof typeof REEL_KIND_LABELS]} ·{' '}
                       {WATER_LABELS[r.water]} · {USE_LABELS[r.useProfile]}
-                      {r.lastServicedOn ? ` · last serviced ${r.lastServicedOn}` : ''}
+                      {r.lastServicedOn
+                        ? ` · last serviced ${formatCivilDate(r.lastServicedOn)}`
+                        : ''}
                     </span>
                   </Choice>
                 ))}

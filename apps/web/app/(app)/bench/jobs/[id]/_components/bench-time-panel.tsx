@@ -138,7 +138,7 @@ export function BenchTimePanel({ job, canWrite }: { job: JobDetailJson; canWrite
         </>
       )}
       {job.sessions.length > 0 && (
-        <table className="mt-5 w-full text-left text-sm">
+        <table className={`w-full text-left text-sm ${canWrite || running !== null ? 'mt-5' : ''}`}>
           <caption className="sr-only">Bench sessions on this job</caption>
           <thead>
             <tr className="border-b border-sand-300 text-slate-600">

@@ -86,7 +86,7 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
               {group.steps.map((step) => (
                 <li
                   key={step.id}
-                  className="gap-4 px-3 py-2 @xl:grid @xl:grid-cols-[minmax(0,1fr)_17rem]"
+                  className={`gap-4 px-3 py-2 ${step.safetyCaution ? '@xl:grid @xl:grid-cols-[minmax(0,1fr)_17rem]' : ''}`}
                 >
                   <div className="flex items-start gap-3">
                     {canWrite ? (

@@ -7,7 +7,7 @@ import { StateBadge } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
 import { JOB_STATE_LABELS, REEL_KIND_LABELS, SERVICE_LABELS, type JobState } from '~/lib/labels';
 import { jobDetailQuery, sendJson, type JobDetailJson } from '~/lib/queries/jobs';
-import { moveLabel, USE_LABELS, WATER_LABELS } from '../../../_components/format';
+import { formatCivilDate, moveLabel, USE_LABELS, WATER_LABELS } from '../../../_components/format';
 import { BenchTimePanel } from './bench-time-panel';
 import { ChecklistPanel } from './checklist-panel';
 import { ErrorNote } from './error-note';
@@ -231,7 +231,11 @@ function JobHeader({ job, canWrite }: { job: JobDetailJson; canWrite: boolean })
         <Fact label="Use">
           {WATER_LABELS[job.reel.water]}, {USE_LABELS[job.reel.useProfile]?.toLowerCase()}
         </Fact>
-        <Fact label="Last serviced">{job.reel.lastServicedOn ?? 'Not with us before'}</Fact>
+        <Fact label="Last serviced">
+          {job.reel.lastServicedOn
+            ? formatCivilDate(job.reel.lastServicedOn)
+            : 'Not with us before'}
+        </Fact>
       </dl>
     </header>
   );
