@@ -1,3 +1,4 @@
+import Link from 'next/link';
 import { Empty, StateBadge } from '~/components/ui';
 import { daysBetween, formatInZone } from '~/lib/format';
 import { SERVICE_LABELS } from '~/lib/labels';
@@ -46,7 +47,12 @@ export function OpenJobsTable(props: {
           {props.jobs.map((job) => (
             <tr key={job.id} className="border-b border-sand-100 align-top">
               <th scope="row" className="py-3 pr-4 font-medium tabular-nums">
-                #{job.id}
+                <Link
+                  href={`/bench/jobs/${job.id}`}
+                  className="text-sea-700 underline-offset-2 hover:underline"
+                >
+                  #{job.id}
+                </Link>
               </th>
               <td className="py-3 pr-4">
                 <span className="block font-medium">{job.customerName}</span>
