@@ -10,7 +10,10 @@ export async function GET() {
     const applied = await appliedMigrationCount(handle.db);
     const pending = Math.max(0, journaledMigrationCount() - applied);
     return Response.json(
-      { status: pending === 0 ? 'ok' : 'degraded', database: { driver: handle.driver, applied, pending } },
+      {
+        status: pending === 0 ? 'ok' : 'degraded',
+        database: { driver: handle.driver, applied, pending },
+      },
       { status: pending === 0 ? 200 : 503 },
     );
   } catch (error) {
