@@ -155,7 +155,7 @@ export function PhotosPanel({ jobId, canUpload }: { jobId: number; canUpload: bo
                     <progress
                       max={1}
                       value={u.progress}
-                      className="h-2 w-40 accent-sea-700"
+                      className="h-2 w-40 appearance-none overflow-hidden rounded-full bg-sand-200 [&::-moz-progress-bar]:bg-sea-700 [&::-webkit-progress-bar]:bg-sand-200 [&::-webkit-progress-value]:bg-sea-700"
                       aria-valuetext={`${Math.round(u.progress * 100)}%`}
                     />
                     <span className="num w-12 text-sm">{Math.round(u.progress * 100)}%</span>

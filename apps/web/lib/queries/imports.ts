@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { ImportHistoryRow } from '~/server/imports/history';
-import type { ImportSummary } from '~/server/imports/jobs';
+import type { ImportProgress, ImportSummary } from '~/server/imports/jobs';
 import { fetchJson } from '../api-client';
 import type { ImportField, ImportRowError } from '../validators/imports';
 
@@ -28,7 +28,7 @@ export type ImportOutcome =
 export function sendImport(
   file: File,
   mapping: Partial<Record<ImportField, string>>,
-  on: { onUpload: (fraction: number) => void; onStored: (done: number, total: number) => void },
+  on: { onUpload: (fraction: number) => void; onStored: (progress: ImportProgress) => void },
 ): Promise<ImportOutcome> {
   return new Promise((resolve) => {
     const form = new FormData();
@@ -48,11 +48,11 @@ export function sendImport(
       for (const line of text.slice(seen, end).split('\n')) {
         if (!line.trim()) continue;
         const message = JSON.parse(line) as {
-          progress?: { done: number; total: number };
+          progress?: ImportProgress;
           done?: ImportSummary;
           error?: { status?: number; detail?: string; title?: string };
         };
-        if (message.progress) on.onStored(message.progress.done, message.progress.total);
+        if (message.progress) on.onStored(message.progress);
         if (message.done) final = { kind: 'imported', summary: message.done };
         if (message.error) final = problemOutcome(message.error.status ?? 500, message.error);
       }

@@ -17,7 +17,8 @@ export async function bulkInsert<R extends Record<string, unknown> = Record<stri
     chunk?: number;
     /** Columns to hand back for each inserted row (SQL names), e.g. `id, external_ref`. */
     returning?: string;
-    onChunk?: (inserted: number) => void;
+    /** Called after each statement; awaited, so it may hand the event loop a turn. */
+    onChunk?: (inserted: number) => void | Promise<void>;
   } = {},
 ): Promise<R[]> {
   const chunk = options.chunk ?? 5000;
@@ -48,7 +49,7 @@ export async function bulkInsert<R extends Record<string, unknown> = Record<stri
     } else {
       await db.execute(statement);
     }
-    options.onChunk?.(Math.min(i + chunk, rows.length));
+    await options.onChunk?.(Math.min(i + chunk, rows.length));
   }
   return returned;
 }

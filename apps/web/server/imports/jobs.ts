@@ -39,7 +39,16 @@ export interface ImportFile {
   mapping: ColumnMapping;
 }
 
-export type ImportProgress = { phase: 'storing'; done: number; total: number };
+/**
+ * How far storing has got: `step` says what is being written, `fraction` is the whole import
+ * (weighted by how long each step takes), `done` counts jobs stored so far.
+ */
+export interface ImportProgress {
+  step: 'customers' | 'jobs' | 'timeline';
+  fraction: number;
+  done: number;
+  total: number;
+}
 
 export interface ImportSummary {
   batchId: number;
@@ -237,7 +246,7 @@ const reelKey = (
 export async function runImport(
   principal: Principal,
   prepared: Extract<PreparedImport, { ok: true }>,
-  onProgress: (p: ImportProgress) => void = () => {},
+  onProgress: (p: ImportProgress) => void | Promise<void> = () => {},
 ): Promise<ImportSummary> {
   const started = performance.now();
   const { shop, rows, file } = prepared;
@@ -263,6 +272,7 @@ export async function runImport(
         .returning({ id: importBatches.id });
       const batchId = batch!.id;
 
+      await onProgress({ step: 'customers', fraction: 0, done: 0, total });
       // Customers: the shop's own, matched by e-mail, else phone, else name.
       const known = await tx
         .select({
@@ -415,7 +425,8 @@ export async function runImport(
       const inserted = await bulkInsert<{ id: number; external_ref: string }>(tx, jobs, jobRows, {
         chunk: 2500,
         returning: 'id, external_ref',
-        onChunk: (done) => onProgress({ phase: 'storing', done, total }),
+        onChunk: (done) =>
+          onProgress({ step: 'jobs', fraction: 0.12 + (0.48 * done) / total, done, total }),
       });
       const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
 
@@ -429,7 +440,16 @@ export async function runImport(
           sessionRows.push({ jobId, technicianId, minutes: row.benchMinutes, note });
         }
       });
-      await bulkInsert(tx, jobEvents, eventRows, { chunk: 10_000 });
+      await bulkInsert(tx, jobEvents, eventRows, {
+        chunk: 10_000,
+        onChunk: (written) =>
+          onProgress({
+            step: 'timeline',
+            fraction: 0.6 + (0.37 * written) / eventRows.length,
+            done: total,
+            total,
+          }),
+      });
       await bulkInsert(tx, benchSessions, sessionRows, { chunk: 10_000 });
 
       const seconds = (performance.now() - started) / 1000;

@@ -21,6 +21,7 @@ import {
   type ImportRowError,
 } from '~/lib/validators/imports';
 import type { ImportHistoryRow } from '~/server/imports/history';
+import type { ImportProgress } from '~/server/imports/jobs';
 
 interface FileRead {
   file: File;
@@ -35,8 +36,14 @@ type Phase =
   | { kind: 'checking'; done: number; total: number }
   | { kind: 'checked'; errors: ImportRowError[]; rowCount: number }
   | { kind: 'sending'; fraction: number }
-  | { kind: 'storing'; done: number; total: number }
+  | { kind: 'storing'; progress: ImportProgress }
   | { kind: 'finished'; outcome: Exclude<ImportOutcome, { kind: 'rejected' }> };
+
+const STORING_TEXT: Record<ImportProgress['step'], (p: ImportProgress) => string> = {
+  customers: () => 'Storing customers and reels',
+  jobs: (p) => `Storing jobs: ${formatCount(p.done)} of ${formatCount(p.total)}`,
+  timeline: (p) => `Writing the timelines of ${formatCount(p.total)} jobs`,
+};
 
 const SLICE = 2_000;
 const SHOWN_ERRORS = 200;
@@ -154,7 +161,7 @@ export function ImportScreen(props: {
     setPhase({ kind: 'sending', fraction: 0 });
     const outcome = await sendImport(read.file, mapping, {
       onUpload: (fraction) => setPhase({ kind: 'sending', fraction }),
-      onStored: (done, total) => setPhase({ kind: 'storing', done, total }),
+      onStored: (progress) => setPhase({ kind: 'storing', progress }),
     });
     setPhase(
       outcome.kind === 'rejected'
@@ -375,14 +382,14 @@ export function ImportScreen(props: {
                   <p className="text-slate-800">The server is checking every row…</p>
                   <progress
                     aria-label="The server is checking every row"
-                    className="mt-1 h-3 w-full accent-sea-700"
+                    className="mt-1 h-3 w-full appearance-none overflow-hidden rounded-full bg-sand-200 [&::-moz-progress-bar]:bg-sea-700 [&::-webkit-progress-bar]:bg-sand-200 [&::-webkit-progress-value]:bg-sea-700"
                   />
                 </div>
               ))}
             {phase.kind === 'storing' && (
               <Progress
-                label={`Storing jobs: ${formatCount(phase.done)} of ${formatCount(phase.total)}`}
-                fraction={phase.done / phase.total}
+                label={STORING_TEXT[phase.progress.step](phase.progress)}
+                fraction={phase.progress.fraction}
               />
             )}
           </div>
@@ -443,7 +450,7 @@ function Progress(props: { label: string; fraction: number }) {
         max={100}
         value={percent}
         aria-label={props.label}
-        className="mt-1 h-3 w-full accent-sea-700"
+        className="mt-1 h-3 w-full appearance-none overflow-hidden rounded-full bg-sand-200 [&::-moz-progress-bar]:bg-sea-700 [&::-webkit-progress-bar]:bg-sand-200 [&::-webkit-progress-value]:bg-sea-700"
       />
     </div>
   );
