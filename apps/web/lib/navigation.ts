@@ -24,8 +24,15 @@ const ITEMS: NavItem[] = [
   { href: '/settings', label: 'Settings', permission: 'settings:manage' },
 ];
 
-export function navFor(role: Role, shopId: number | null): NavItem[] {
+export function navFor(
+  role: Role,
+  shopId: number | null,
+  options: { mailCatcher?: boolean } = {},
+): NavItem[] {
   const items = ITEMS.filter((item) => can(role, item.permission));
+  // The caught-mail page exists only where a local SMTP catcher runs (development and tests).
+  if (options.mailCatcher && can(role, 'dev-mail:read'))
+    items.push({ href: '/dev/mail', label: 'Caught mail', permission: 'dev-mail:read' });
   if (shopId != null)
     items.splice(1, 0, { href: `/shops/${shopId}`, label: 'Shop', permission: 'shops:read' });
   return items;

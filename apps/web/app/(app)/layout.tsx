@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import type { ReactNode } from 'react';
 import { Logo } from '~/components/logo';
+import { env } from '~/env';
 import { navFor } from '~/lib/navigation';
 import { ROLE_LABELS } from '~/lib/permissions';
 import { requirePagePrincipal } from '~/server/session';
@@ -9,10 +10,9 @@ import { SignOutButton } from './_components/sign-out-button';
 
 export default async function AppLayout({ children }: { children: ReactNode }) {
   const principal = await requirePagePrincipal();
-  const items = navFor(principal.role, principal.shopId).map(({ href, label }) => ({
-    href,
-    label,
-  }));
+  const items = navFor(principal.role, principal.shopId, {
+    mailCatcher: Boolean(env.MAIL_CATCHER_URL),
+  }).map(({ href, label }) => ({ href, label }));
   return (
     <div className="min-h-screen">
       <a

@@ -44,12 +44,22 @@ export default async function BenchPage({
         }
         actions={
           canWrite ? (
-            <Link
-              href="/bench/new"
-              className="inline-flex min-h-12 items-center rounded-md bg-sea-700 px-5 text-lg font-semibold text-white hover:bg-sea-800"
-            >
-              Check a reel in
-            </Link>
+            <div className="flex flex-wrap gap-3">
+              {can(principal.role, 'jobs:import') && (
+                <Link
+                  href="/bench/import"
+                  className="inline-flex min-h-12 items-center rounded-md border border-sea-700 bg-white px-5 text-lg font-semibold text-sea-800 hover:bg-sea-50"
+                >
+                  Import past jobs
+                </Link>
+              )}
+              <Link
+                href="/bench/new"
+                className="inline-flex min-h-12 items-center rounded-md bg-sea-700 px-5 text-lg font-semibold text-white hover:bg-sea-800"
+              >
+                Check a reel in
+              </Link>
+            </div>
           ) : undefined
         }
       />
