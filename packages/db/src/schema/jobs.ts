@@ -65,6 +65,18 @@ export const jobs = pgTable(
   },
   (t) => [
     index('jobs_shop_ready_at_idx').on(t.shopId, t.readyAt),
+    // The network comparison reads a period's ready jobs from this index alone (index-only scan).
+    index('jobs_shop_ready_figures_idx').on(
+      t.shopId,
+      t.readyAt,
+      t.promisedAt,
+      t.customerTurnaroundMinutes,
+      t.benchTurnaroundMinutes,
+      t.labourCents,
+      t.partsCents,
+      t.discountCents,
+      t.benchMinutes,
+    ),
     index('jobs_shop_checked_in_at_idx').on(t.shopId, t.checkedInAt),
     index('jobs_shop_state_idx').on(t.shopId, t.state),
     index('jobs_shop_collected_at_idx').on(t.shopId, t.collectedAt),

@@ -1,0 +1,1 @@
+CREATE INDEX "jobs_shop_ready_figures_idx" ON "jobs" USING btree ("shop_id","ready_at","promised_at","customer_turnaround_minutes","bench_turnaround_minutes","labour_cents","parts_cents","discount_cents","bench_minutes");
