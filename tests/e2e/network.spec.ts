@@ -238,7 +238,8 @@ test.describe('network view', () => {
       await expect(
         page.getByRole('figure', { name: /Comeback rate against volume/ }),
       ).toBeVisible();
-      await expect(page.getByText('No audit rounds yet').first()).toBeVisible();
+      await expect(page.getByText(/^No audit rounds yet: this funnel appears/)).toBeVisible();
+      await expect(shopTable(page).getByRole('button', { name: 'No rounds yet' })).toHaveCount(7);
       // Explanations show on keyboard focus as well as on hover.
       const rate = shopTable(page)
         .locator('tbody tr')

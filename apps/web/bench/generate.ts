@@ -129,11 +129,21 @@ export async function generateNetwork(db: Db, options: GenerateOptions) {
   const regionCount = Math.max(1, Math.round(options.shops / 10));
   const regionRows = await db
     .insert(regions)
-    .values(Array.from({ length: regionCount }, (_, i) => ({ name: `Region ${i + 1}`, code: `r${i + 1}` })))
+    .values(
+      Array.from({ length: regionCount }, (_, i) => ({
+        name: `Region ${i + 1}`,
+        code: `r${i + 1}`,
+      })),
+    )
     .returning({ id: regions.id });
   const [owner] = await db
     .insert(users)
-    .values({ email: 'bench-owner@bench.test', name: 'Bench owner', passwordHash: 'x', role: 'owner' })
+    .values({
+      email: 'bench-owner@bench.test',
+      name: 'Bench owner',
+      passwordHash: 'x',
+      role: 'owner',
+    })
     .returning({ id: users.id });
   await db.insert(networkSettings).values({ id: 1, networkName: 'Benchmark network' });
 
@@ -270,7 +280,9 @@ export async function generateNetwork(db: Db, options: GenerateOptions) {
       discount_cents: ready && labour > 1_000 && r.chance(0.05) ? 500 : 0,
       comeback_of_job_id: comebackOf ?? null,
       customer_turnaround_minutes: t ? Math.round(t.customerMinutes) : null,
-      bench_turnaround_minutes: t ? Math.round(t.customerMinutes) - Math.round(t.waitingMinutes) : null,
+      bench_turnaround_minutes: t
+        ? Math.round(t.customerMinutes) - Math.round(t.waitingMinutes)
+        : null,
       waiting_parts_minutes: t ? Math.round(t.waitingMinutes) : null,
       bench_minutes: ready ? bench : null,
     });
@@ -289,10 +301,17 @@ export async function generateNetwork(db: Db, options: GenerateOptions) {
   for (const s of shopCtx) cumulative.push((acc += s.share));
   while (nextId <= options.jobs) {
     const u = r.next();
-    const shopIndex = Math.min(shopCtx.length - 1, cumulative.findIndex((c) => u < c));
+    const shopIndex = Math.min(
+      shopCtx.length - 1,
+      cumulative.findIndex((c) => u < c),
+    );
     const at = startMs + Math.floor(r.next() * (nowMs - startMs));
     const job = makeJob(shopIndex, at);
-    if (job.collectedAt !== null && nextId <= options.jobs && r.chance(shopCtx[shopIndex]!.comebackChance * 1.3)) {
+    if (
+      job.collectedAt !== null &&
+      nextId <= options.jobs &&
+      r.chance(shopCtx[shopIndex]!.comebackChance * 1.3)
+    ) {
       const days = r.int(2, 88);
       const detected = job.collectedAt + days * DAY;
       if (detected <= nowMs) {
@@ -331,7 +350,10 @@ export async function generateNetwork(db: Db, options: GenerateOptions) {
   options.onProgress?.(nextId - 1);
 
   // One decided audit round per shop and quarter, with its samples.
-  const [form] = await db.insert(auditForms).values({ version: 1, title: 'Bench form' }).returning({ id: auditForms.id });
+  const [form] = await db
+    .insert(auditForms)
+    .values({ version: 1, title: 'Bench form' })
+    .returning({ id: auditForms.id });
   const sampleBatch = new Batch('audit_samples', {
     round_id: 'int4',
     job_id: 'int4',
@@ -392,6 +414,7 @@ export async function generateNetwork(db: Db, options: GenerateOptions) {
       sql`select setval(pg_get_serial_sequence(${table}, 'id'), (select max(id) from ${sql.identifier(table)}))`,
     );
   }
-  await db.execute(sql`analyze`);
+  // Statistics for the planner and the visibility map for index-only scans (PGlite has no autovacuum).
+  await db.execute(sql`vacuum analyze`);
   return { jobs: nextId - 1, owner: owner!.id };
 }

@@ -10,6 +10,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
+import { niceTicks } from './ticks';
 
 export interface HistogramDatum {
   /** Bin start and end in the unit shown; the last bin may be open-ended. */
@@ -43,6 +44,7 @@ export function HistogramChart(props: {
         : `${fmt(b.from)}–${fmt(b.to)} ${props.unit}`,
   }));
   const end = (props.bins.at(-1)?.from ?? 0) + width;
+  const yTicks = niceTicks(Math.max(1, ...props.bins.map((b) => b.count)), 4).map(Math.round);
   return (
     <div style={{ height: props.height ?? 240 }}>
       <ResponsiveContainer width="100%" height="100%">
@@ -67,7 +69,13 @@ export function HistogramChart(props: {
               fontSize: 12,
             }}
           />
-          <YAxis allowDecimals={false} tick={{ fill: '#475569', fontSize: 11 }} width={36} />
+          <YAxis
+            allowDecimals={false}
+            domain={[0, yTicks.at(-1)!]}
+            ticks={yTicks}
+            tick={{ fill: '#475569', fontSize: 11 }}
+            width={36}
+          />
           <Tooltip
             formatter={(value: number) => [value, 'Jobs']}
             labelFormatter={(_: unknown, payload: { payload?: { range?: string } }[]) =>

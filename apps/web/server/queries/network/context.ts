@@ -95,6 +95,21 @@ export function openMinutesPerDay(
   timeZone: string,
   weekly: Parameters<typeof businessMinutes>[2]['weekly'],
 ): number | null {
+  const key = `${timeZone}|${JSON.stringify(weekly)}`;
+  const known = dayLengths.get(key);
+  if (known !== undefined) return known;
+  const value = measureOpenDay(timeZone, weekly);
+  dayLengths.set(key, value);
+  return value;
+}
+
+// A shop's hours rarely change; measuring them is the slow part of loading the shops.
+const dayLengths = new Map<string, number | null>();
+
+function measureOpenDay(
+  timeZone: string,
+  weekly: Parameters<typeof businessMinutes>[2]['weekly'],
+): number | null {
   const calendar = { timeZone, weekly, closedDates: [] };
   // Monday 2026-01-05 to the next Monday, local midnight to local midnight.
   const from = new Date(new TZDate(2026, 0, 5, timeZone).getTime());

@@ -56,29 +56,45 @@ async function monthlyRows(
     const at = asOf.toISOString();
     const hours = settings.warrantyDays * 24;
     const counted = `{${settings.countedAttributions.join(',')}}`;
+    const closed = sql`j.collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz`;
+    const month = sql`to_char(j.collected_at at time zone s.time_zone, 'YYYY-MM')`;
+    // As in the comparison: closed windows counted over the index, returns from the comebacks.
     const { rows } = await conn.execute<Row>(sql`
       with s as (${bounds(ids, period)})
       select s.id as "shopId", m.month, m.trials, m.events
       from s
       cross join lateral (
-        select to_char(j.collected_at at time zone s.time_zone, 'YYYY-MM') as month,
-          (count(*) filter (where coalesce(b.came_back, false)
-            or j.collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz))::int as trials,
-          (count(*) filter (where coalesce(b.counted, false)))::int as events
-        from jobs j
-        left join lateral (
-          select bool_or(cb.status = 'confirmed') as came_back,
-            bool_or(cb.status = 'confirmed'
-              and cb.attribution = any(${counted}::comeback_attribution[])) as counted
-          from comebacks cb
-          where cb.original_job_id = j.id
-            and cb.detected_at >= j.collected_at
-            and cb.detected_at < j.collected_at + ${hours} * interval '1 hour'
-            and cb.detected_at <= ${at}::timestamptz
-        ) b on true
-        where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
-          and j.collected_at <= ${at}::timestamptz
-        group by 1
+        select c.month, (c.closed + coalesce(b.open_came_back, 0))::int as trials,
+          coalesce(b.events, 0)::int as events
+        from (
+          select ${month} as month, count(*) filter (where ${closed}) as closed
+          from jobs j
+          where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
+            and j.collected_at <= ${at}::timestamptz
+          group by 1
+        ) c
+        left join (
+          select k.month,
+            count(*) filter (where k.came_back and not k.closed) as open_came_back,
+            count(*) filter (where k.counted) as events
+          from (
+            select ${month} as month, ${closed} as closed,
+              bool_or(cb.status = 'confirmed') as came_back,
+              bool_or(cb.status = 'confirmed'
+                and cb.attribution = any(${counted}::comeback_attribution[])) as counted
+            from comebacks cb
+            join jobs j on j.id = cb.original_job_id
+            where cb.original_shop_id = s.id and j.shop_id = s.id
+              and cb.detected_at >= s.t0
+              and cb.detected_at < s.t1 + ${hours} * interval '1 hour'
+              and cb.detected_at <= ${at}::timestamptz
+              and j.collected_at >= s.t0 and j.collected_at < s.t1
+              and cb.detected_at >= j.collected_at
+              and cb.detected_at < j.collected_at + ${hours} * interval '1 hour'
+            group by j.id, j.collected_at
+          ) k
+          group by k.month
+        ) b on b.month = c.month
       ) m`);
     return rows;
   }
