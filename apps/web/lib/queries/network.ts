@@ -22,7 +22,8 @@ const search = (params: Record<string, string | number | undefined>) =>
 
 export const networkKeys = {
   all: ['network'] as const,
-  comparison: (p: PeriodParams) => ['network', 'comparison', p.from, p.to, p.region ?? null] as const,
+  comparison: (p: PeriodParams) =>
+    ['network', 'comparison', p.from, p.to, p.region ?? null] as const,
   trends: (p: PeriodParams, metric: TrendMetric) =>
     ['network', 'trends', metric, p.from, p.to, p.region ?? null] as const,
   shopMetrics: (id: number, p: PeriodParams) => ['shops', id, 'metrics', p.from, p.to] as const,
@@ -52,7 +53,9 @@ export const shopMetricsQuery = (id: number, p: PeriodParams) =>
   queryOptions({
     queryKey: networkKeys.shopMetrics(id, p),
     queryFn: () =>
-      fetchJson<ShopMetricsResult>(`/api/shops/${id}/metrics?${search({ from: p.from, to: p.to })}`),
+      fetchJson<ShopMetricsResult>(
+        `/api/shops/${id}/metrics?${search({ from: p.from, to: p.to })}`,
+      ),
   });
 
 export const shopTrendsQuery = (id: number, p: PeriodParams, metric: TrendMetric) =>
