@@ -74,6 +74,13 @@ if [ -z "${STRIPE_SECRET_KEY:-}${STRIPE_API_BASE:-}" ]; then
   rm -f "$stripe_env"
 fi
 
+if [ -n "${DATABASE_URL:-}" ]; then data_where="PostgreSQL at DATABASE_URL"; else data_where="embedded PGlite in $PGLITE_DATA_DIR"; fi
+if [ -n "${MAIL_CATCHER_URL:-}" ]; then
+  mail_where="caught locally; the owner reads it at http://127.0.0.1:$PORT/dev/mail"
+else
+  mail_where="sent through SMTP_URL"
+fi
+if [ -n "${STRIPE_API_BASE:-}" ]; then payments_where="the local payment fake at $STRIPE_API_BASE"; else payments_where="Stripe"; fi
 cat <<MSG
 
   Reelwright is starting on http://127.0.0.1:$PORT
@@ -88,10 +95,10 @@ cat <<MSG
     tech.fennel@saltwick.test     technician, Fennel Cove
     auditor@saltwick.test         auditor
 
-  Data: ${DATABASE_URL:+PostgreSQL at DATABASE_URL}${DATABASE_URL:-embedded PGlite in $PGLITE_DATA_DIR} (kept between runs)
+  Data: $data_where (kept between runs)
   Photos: ${S3_ENDPOINT:-AWS S3, region ${S3_REGION:-us-east-1}}, bucket ${S3_BUCKET:-reelwright-photos}
-  E-mail: ${MAIL_CATCHER_URL:+caught locally; the owner sees it at http://127.0.0.1:$PORT/dev/mail}${MAIL_CATCHER_URL:-sent through SMTP_URL}
-  Royalty invoices: ${STRIPE_API_BASE:+the local payment fake at $STRIPE_API_BASE}${STRIPE_API_BASE:-Stripe}
+  E-mail: $mail_where
+  Royalty invoices: $payments_where
   Stop with Ctrl-C.
 
 MSG
