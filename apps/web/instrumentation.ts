@@ -1,7 +1,16 @@
 // Runs once when the server starts: validate the environment and bring the database up to date.
+import type { env as Env } from './env';
+
 export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
-  const { env } = await import('./env');
+  let env: typeof Env;
+  try {
+    ({ env } = await import('./env'));
+  } catch (error) {
+    // A server that cannot sign sessions or reach its database must not start half-working.
+    console.error(error instanceof Error ? error.message : error);
+    process.exit(1);
+  }
   const { database } = await import('./server/db');
   const { runMigrations } = await import('@reelwright/db/client');
   const handle = await database();
