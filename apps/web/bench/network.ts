@@ -1,9 +1,11 @@
 // `pnpm bench`: how fast the network comparison stays on a large network. Builds a synthetic
-// network (default 60 shops, 3 years, 1,000,000 jobs) in a temporary PGlite folder, and on the
-// PostgreSQL database given by --pg-url (the `bench` script passes BENCH_DATABASE_URL), then times
-// one quarter across all shops three ways: the API handler's query function, the single bare SQL
-// aggregate reading the same rows (the floor), and loading those rows into JS and computing there
-// with the metrics engine (the naive way). Medians of several runs; figures printed, never asserted.
+// network (default 60 shops, 3 years, 1,000,000 jobs) in a temporary PGlite folder (or in
+// --data-dir, kept for later runs), and in the PostgreSQL database given by --pg-url (the `bench`
+// script passes BENCH_DATABASE_URL; an empty database is filled and left filled for reuse), then
+// times one quarter across all shops three ways: the API handler's query function, the single
+// bare SQL aggregate reading the same rows (the floor), and loading those rows into JS and
+// computing there with the metrics engine (the naive way). Medians of several runs, taken in turn
+// so each sees the same machine load; figures are printed, never asserted.
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';

@@ -87,7 +87,7 @@ export function ComparisonTable(props: {
           >
             {row.original.shop.name}
           </Link>
-          <span className="block text-sm font-normal text-slate-600">
+          <span className="block text-sm font-normal whitespace-nowrap text-slate-600">
             {row.original.shop.region.name}
           </span>
         </>
@@ -252,6 +252,7 @@ export function ComparisonTable(props: {
       <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
         <p className="text-sm text-slate-600">
           Select a column heading to sort. Hover over or focus a figure for what it means.
+          <span className="xl:hidden"> Scroll the table sideways for every column.</span>
         </p>
         <button
           type="button"
@@ -312,7 +313,7 @@ export function ComparisonTable(props: {
                     <th
                       key={cell.id}
                       scope="row"
-                      className="sticky left-0 z-10 bg-white py-3 pr-2 text-left font-medium"
+                      className="sticky left-0 z-10 min-w-[8.5rem] bg-white py-3 pr-2 text-left font-medium"
                     >
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </th>

@@ -12,28 +12,33 @@ export function Explain(props: { children: ReactNode; text: string; className?: 
   const button = useRef<HTMLButtonElement>(null);
   const [at, setAt] = useState<{ top: number; left: number } | null>(null);
 
-  const show = () => {
+  const place = () => {
     const r = button.current?.getBoundingClientRect();
-    if (!r) return;
+    if (!r) return null;
     const half = Math.min(160, window.innerWidth / 2 - 8);
     const left = Math.min(Math.max(r.left + r.width / 2, half + 8), window.innerWidth - half - 8);
-    setAt({ top: r.bottom, left });
+    return { top: r.bottom, left };
   };
+  const show = () => setAt(place());
   const hide = () => setAt(null);
+  const open = at !== null;
 
   useEffect(() => {
-    if (!at) return;
+    if (!open) return;
     const onKey = (e: KeyboardEvent) => {
       if (e.key === 'Escape') setAt(null);
     };
-    const onScroll = () => setAt(null);
+    // Focus moving through a table scrolls it: the explanation follows its figure.
+    const follow = () => setAt(place());
     window.addEventListener('keydown', onKey);
-    window.addEventListener('scroll', onScroll, true);
+    window.addEventListener('scroll', follow, true);
+    window.addEventListener('resize', follow);
     return () => {
       window.removeEventListener('keydown', onKey);
-      window.removeEventListener('scroll', onScroll, true);
+      window.removeEventListener('scroll', follow, true);
+      window.removeEventListener('resize', follow);
     };
-  }, [at]);
+  }, [open]);
 
   return (
     <span className="inline-block" onMouseEnter={show} onMouseLeave={hide}>
@@ -43,7 +48,7 @@ export function Explain(props: { children: ReactNode; text: string; className?: 
         aria-describedby={id}
         onFocus={show}
         onBlur={hide}
-        onClick={() => (at ? hide() : show())}
+        onClick={() => (open ? hide() : show())}
         className={`cursor-help rounded-sm text-inherit underline decoration-slate-400 decoration-dotted underline-offset-4 ${props.className ?? ''}`}
       >
         {props.children}
@@ -51,7 +56,7 @@ export function Explain(props: { children: ReactNode; text: string; className?: 
       <span
         role="tooltip"
         id={id}
-        hidden={!at}
+        hidden={!open}
         style={at ? { top: at.top, left: at.left } : undefined}
         className="fixed z-50 w-80 max-w-[calc(100vw-1rem)] -translate-x-1/2 pt-1.5 text-left"
       >

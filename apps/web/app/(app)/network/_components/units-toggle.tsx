@@ -1,6 +1,7 @@
 'use client';
 
 import { useSearchParams } from 'next/navigation';
+import { useState } from 'react';
 import type { TurnaroundUnit } from '~/lib/validators/network';
 
 /** The turnaround unit in the address (`units=days`), business hours by default. */
@@ -15,7 +16,11 @@ export function useUnit(): TurnaroundUnit {
 export function UnitsToggle() {
   const unit = useUnit();
   const search = useSearchParams();
+  // The choice shows at once; the address (and the figures reading it) follow a moment later.
+  const [chosen, setChosen] = useState<TurnaroundUnit | null>(null);
+  const shown = chosen ?? unit;
   const choose = (next: TurnaroundUnit) => {
+    setChosen(next);
     const q = new URLSearchParams(search.toString());
     if (next === 'hours') q.delete('units');
     else q.set('units', next);
@@ -33,7 +38,7 @@ export function UnitsToggle() {
             type="radio"
             name="units"
             value={u}
-            checked={unit === u}
+            checked={shown === u}
             onChange={() => choose(u)}
             className="size-4 accent-sea-700"
           />
