@@ -1,4 +1,4 @@
-import { and, asc, eq, gte, lt, sql, type Db, type Tx } from '@reelwright/db';
+import { and, asc, eq, gte, inArray, lt, sql, type Db, type Tx } from '@reelwright/db';
 import { auditRounds, jobs } from '@reelwright/db/schema';
 import {
   nextSeverity,
@@ -78,14 +78,12 @@ export interface ShopSeverity {
   reason: string;
 }
 
-/**
- * The inspection severity of the shop's next round: the switching rules of ISO 2859-1 §9.3–9.4
- * replayed over its decided rounds in period order, starting from normal inspection.
- */
-export async function shopSeverity(conn: Conn, shopId: number): Promise<ShopSeverity> {
-  const rounds = await conn
+/** A shop's rounds that count for the switching rules (not cancelled), in period order. */
+function roundsOf(conn: Conn, shopIds: readonly number[]) {
+  return conn
     .select({
       id: auditRounds.id,
+      shopId: auditRounds.shopId,
       status: auditRounds.status,
       periodStart: auditRounds.periodStart,
       periodEnd: auditRounds.periodEnd,
@@ -97,8 +95,18 @@ export async function shopSeverity(conn: Conn, shopId: number): Promise<ShopSeve
       sampleSize: auditRounds.sampleSize,
     })
     .from(auditRounds)
-    .where(and(eq(auditRounds.shopId, shopId), sql`${auditRounds.status} <> 'cancelled'`))
+    .where(
+      and(inArray(auditRounds.shopId, [...shopIds]), sql`${auditRounds.status} <> 'cancelled'`),
+    )
     .orderBy(asc(auditRounds.periodStart), asc(auditRounds.id));
+}
+type RoundRow = Awaited<ReturnType<typeof roundsOf>>[number];
+
+/**
+ * The switching rules of ISO 2859-1 §9.3–9.4 replayed over a shop's rounds (not cancelled, in
+ * period order), starting from normal inspection.
+ */
+function severityFromRounds(rounds: readonly RoundRow[]): ShopSeverity {
   const decided = rounds.filter((r) => r.status === 'decided' && r.decision && r.failures !== null);
   const history: RoundHistoryEntry[] = decided.map((r) => ({
     roundId: r.id,
@@ -125,6 +133,22 @@ export async function shopSeverity(conn: Conn, shopId: number): Promise<ShopSeve
     undecided: rounds.length - decided.length,
     reason: severityReason(severity, history),
   };
+}
+
+/** The inspection severity of the shop's next round, from its history of rounds. */
+export async function shopSeverity(conn: Conn, shopId: number): Promise<ShopSeverity> {
+  return (await shopSeverities(conn, [shopId])).get(shopId)!;
+}
+
+/** The severity of each shop's next round, read in one query (the network view asks for all). */
+export async function shopSeverities(
+  conn: Conn,
+  shopIds: readonly number[],
+): Promise<Map<number, ShopSeverity>> {
+  const rounds = shopIds.length === 0 ? [] : await roundsOf(conn, shopIds);
+  const byShop = new Map<number, RoundRow[]>(shopIds.map((id) => [id, []]));
+  for (const r of rounds) byShop.get(r.shopId)?.push(r);
+  return new Map([...byShop].map(([id, rows]) => [id, severityFromRounds(rows)]));
 }
 
 function severityReason(severity: SeverityValue, history: RoundHistoryEntry[]): string {

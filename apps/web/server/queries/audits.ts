@@ -38,7 +38,7 @@ import type {
   SeverityValue,
   VerdictValue,
 } from '~/lib/validators/audits';
-import { lotJobIds, shopSeverity } from '../audits/sampling';
+import { lotJobIds, shopSeverities, shopSeverity } from '../audits/sampling';
 import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
@@ -923,8 +923,11 @@ export async function auditSummaryByShop(
   const samplesByShop = new Map(sampleRows.map((r) => [r.shopId, r]));
   const roundsByShop = new Map(roundRows.map((r) => [r.shopId, r]));
   const actionsByShop = new Map(actionRows.map((r) => [r.shopId, r.n]));
-  const severities = await Promise.all(shopRows.map((s) => shopSeverity(conn, s.id)));
-  return shopRows.map((shop, i) => {
+  const severities = await shopSeverities(
+    conn,
+    shopRows.map((s) => s.id),
+  );
+  return shopRows.map((shop) => {
     const s = samplesByShop.get(shop.id);
     const scored = s?.scored ?? 0;
     const failures = s?.failures ?? 0;
@@ -942,7 +945,7 @@ export async function auditSummaryByShop(
       averageScore: scored ? s!.scoreSum / scored : null,
       roundsAccepted: roundsByShop.get(shop.id)?.accepted ?? 0,
       roundsRejected: roundsByShop.get(shop.id)?.rejected ?? 0,
-      currentSeverity: severities[i]!.severity,
+      currentSeverity: severities.get(shop.id)!.severity,
       openCorrectiveActions: actionsByShop.get(shop.id) ?? 0,
     };
   });

@@ -6,7 +6,9 @@ import {
   revenuePerBenchHour,
   type ShopComparison,
 } from '@reelwright/metrics';
+import type { SeverityValue } from '~/lib/validators/audits';
 import type { ComparisonQuery, PeriodQuery } from '~/lib/validators/network';
+import { shopSeverities } from '../../audits/sampling';
 import { notFound } from '../../errors';
 import type { Principal } from '../../principal';
 import {
@@ -46,6 +48,10 @@ export interface ShopCounts {
   auditScored: number;
   auditFailures: number;
   auditCritical: number;
+  /** Sum of the scores of scored samples (the average is this ÷ auditScored). */
+  auditScoreSum: number;
+  auditAccepted: number;
+  auditRejected: number;
   actionsOpen: number;
   actionsOverdue: number;
 }
@@ -132,7 +138,8 @@ export async function aggregateShops(
       c.collected, c.closed + b.open_came_back as trials, b.events,
       b.awaiting_review as "awaitingReview",
       a.rounds as "auditRounds", a.scored as "auditScored", a.failures as "auditFailures",
-      a.critical as "auditCritical",
+      a.critical as "auditCritical", a.score_sum as "auditScoreSum",
+      a.accepted as "auditAccepted", a.rejected as "auditRejected",
       ca.open as "actionsOpen", ca.overdue as "actionsOverdue"
     from s
     cross join lateral (
@@ -169,7 +176,10 @@ export async function aggregateShops(
       select count(distinct ar.id)::int as rounds,
         count(sm.verdict)::int as scored,
         (count(*) filter (where sm.verdict in ('needs_work', 'critical_miss')))::int as failures,
-        (count(*) filter (where sm.verdict = 'critical_miss'))::int as critical
+        (count(*) filter (where sm.verdict = 'critical_miss'))::int as critical,
+        coalesce(sum(sm.score) filter (where sm.verdict is not null), 0)::float8 as score_sum,
+        (count(distinct ar.id) filter (where ar.decision = 'accepted'))::int as accepted,
+        (count(distinct ar.id) filter (where ar.decision = 'rejected'))::int as rejected
       from audit_rounds ar
       left join audit_samples sm on sm.round_id = ar.id
       where ar.shop_id = s.id and ar.status <> 'cancelled'
@@ -215,6 +225,9 @@ export async function aggregateShops(
       auditScored: n('auditScored'),
       auditFailures: n('auditFailures'),
       auditCritical: n('auditCritical'),
+      auditScoreSum: n('auditScoreSum'),
+      auditAccepted: n('auditAccepted'),
+      auditRejected: n('auditRejected'),
       actionsOpen: n('actionsOpen'),
       actionsOverdue: n('actionsOverdue'),
     });
@@ -246,6 +259,9 @@ const EMPTY: Omit<ShopCounts, 'shopId'> = {
   auditScored: 0,
   auditFailures: 0,
   auditCritical: 0,
+  auditScoreSum: 0,
+  auditAccepted: 0,
+  auditRejected: 0,
   actionsOpen: 0,
   actionsOverdue: 0,
 };
@@ -316,6 +332,7 @@ function totals(figures: readonly ShopFigures[]): NetworkTotals {
 export function assembleFigures(
   shops: readonly NetworkShop[],
   counts: ReadonlyMap<number, ShopCounts>,
+  severities: ReadonlyMap<number, { severity: SeverityValue }> = new Map(),
 ) {
   const all = shops.map((shop) => ({ shop, c: { ...EMPTY, ...counts.get(shop.id) } }));
   const comebacks = compareShops(
@@ -374,6 +391,10 @@ export function assembleFigures(
         ...rateFigures(audits.shops[i]!, audits.networkRate),
         rounds: c.auditRounds,
         criticalMisses: c.auditCritical,
+        averageScore: c.auditScored === 0 ? null : c.auditScoreSum / c.auditScored,
+        roundsAccepted: c.auditAccepted,
+        roundsRejected: c.auditRejected,
+        severity: severities.get(shop.id)?.severity ?? 'normal',
       },
       correctiveActions: { open: c.actionsOpen, overdue: c.actionsOverdue },
     };
@@ -401,14 +422,12 @@ export async function computeNetwork(
   asOf: Date,
 ) {
   const [settings, shops] = await Promise.all([loadSettings(conn), loadShops(conn, principal)]);
-  const counts = await aggregateShops(
-    conn,
-    shops.map((s) => s.id),
-    period,
-    asOf,
-    settings,
-  );
-  return { settings, shops, ...assembleFigures(shops, counts) };
+  const ids = shops.map((s) => s.id);
+  const [counts, severities] = await Promise.all([
+    aggregateShops(conn, ids, period, asOf, settings),
+    shopSeverities(conn, ids),
+  ]);
+  return { settings, shops, ...assembleFigures(shops, counts, severities) };
 }
 
 /**

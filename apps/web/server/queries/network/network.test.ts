@@ -406,25 +406,31 @@ describe('network comparison – figures worked out by hand', () => {
 
   it('owner – audit samples and open corrective actions are counted once rows exist', async () => {
     const [form] = await db().insert(auditForms).values({ version: 1, title: 'Form' }).returning();
+    const decidedRound = (periodStart: string, periodEnd: string) => ({
+      shopId: ids.b,
+      formId: form!.id,
+      periodStart,
+      periodEnd,
+      status: 'decided' as const,
+      severity: 'normal' as const,
+      aql: 2.5,
+      lotSize: 3,
+      codeLetter: 'A',
+      sampleSize: 2,
+      acceptNumber: 0,
+      rejectNumber: 1,
+      decision: 'rejected' as const,
+      failures: 1,
+      seed: 'x',
+      lotJobIds: [],
+      plannedById: who.owner.id,
+    });
+    // A rejected round in March (outside the period) and one in April: two rejections within
+    // five rounds put the next round on tightened inspection (ISO 2859-1 §9.3.1).
+    await db().insert(auditRounds).values(decidedRound('2026-03-01', '2026-03-31'));
     const [round] = await db()
       .insert(auditRounds)
-      .values({
-        shopId: ids.b,
-        formId: form!.id,
-        periodStart: '2026-04-01',
-        periodEnd: '2026-04-30',
-        status: 'decided',
-        severity: 'normal',
-        aql: 2.5,
-        lotSize: 3,
-        codeLetter: 'A',
-        sampleSize: 2,
-        acceptNumber: 0,
-        rejectNumber: 1,
-        seed: 'x',
-        lotJobIds: [],
-        plannedById: who.owner.id,
-      })
+      .values(decidedRound('2026-04-01', '2026-04-30'))
       .returning();
     const bJobs = await db().execute<{ id: number }>(
       sql`select id from jobs where shop_id = ${ids.b} order by id`,
@@ -469,6 +475,16 @@ describe('network comparison – figures worked out by hand', () => {
         events: 1,
         criticalMisses: 1,
         rate: 0.5,
+        // (92 + 40) / 2
+        averageScore: 66,
+        roundsAccepted: 0,
+        roundsRejected: 1,
+        severity: 'tightened',
+      });
+      expect(byName(r, 'Alder Quay').audits).toMatchObject({
+        averageScore: null,
+        roundsRejected: 0,
+        severity: 'normal',
       });
       expect(b.audits.band).not.toBeNull();
       expect(b.correctiveActions).toEqual({ open: 2, overdue: 1 });

@@ -1,4 +1,5 @@
 import type { ComebackAttribution, FairnessBand, Interval, PChartRow } from '@reelwright/metrics';
+import type { SeverityValue } from '~/lib/validators/audits';
 
 // Plain JSON shapes: the API returns them and the server pages hand them to client components.
 
@@ -63,6 +64,16 @@ export interface AuditFigures extends RateFigures {
   /** Audit rounds whose period ends inside the period (cancelled rounds left out). */
   rounds: number;
   criticalMisses: number;
+  /** Mean score (0–100) of the scored samples; null with none. */
+  averageScore: number | null;
+  /** Decided rounds of the period by their decision. */
+  roundsAccepted: number;
+  roundsRejected: number;
+  /**
+   * The inspection severity the shop's next round will use, from its whole history of rounds
+   * (ISO 2859-1 switching rules): a standing, not a figure of the period.
+   */
+  severity: SeverityValue;
 }
 
 export interface RevenueFigures {
