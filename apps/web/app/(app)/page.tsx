@@ -1,14 +1,14 @@
 import { dehydrate, HydrationBoundary, QueryClient } from '@tanstack/react-query';
 import type { Metadata } from 'next';
 import { Panel, PageHeader, Stat } from '~/components/ui';
-import { formatCount } from '~/lib/format';
+import { OpenJobsTable } from '~/components/open-jobs-table';
+import { daysBetween, formatCount } from '~/lib/format';
 import { JOB_STATE_LABELS } from '~/lib/labels';
 import { shopsQuery } from '~/lib/queries/shops';
 import { oldestOpenJobs, jobCounts } from '~/server/queries/jobs';
 import { getShop, listShops } from '~/server/queries/shops';
 import type { Principal } from '~/server/principal';
 import { requirePagePrincipal } from '~/server/session';
-import { OpenJobsTable } from './_components/open-jobs-table';
 import { ShopsTable } from './_components/shops-table';
 
 export const metadata: Metadata = { title: 'Home' };
@@ -99,9 +99,8 @@ async function ShopHome({ principal, shopId }: { principal: Principal; shopId: n
         }
       >
         <OpenJobsTable
-          jobs={open}
+          rows={open.map((job) => ({ ...job, daysOpen: daysBetween(job.checkedInAt, asOf) }))}
           timeZone={shop.timeZone}
-          asOf={asOf}
           caption={mine ? 'Your open jobs' : 'Open jobs, oldest first'}
           showTechnician={!mine}
         />

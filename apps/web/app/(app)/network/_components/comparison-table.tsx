@@ -13,6 +13,7 @@ import Papa from 'papaparse';
 import { useState } from 'react';
 import type { TurnaroundUnit } from '~/lib/validators/network';
 import type { NetworkComparisonResult, ShopFigures } from '~/server/queries/network';
+import { SeverityBadge } from '../../audits/_components/badges';
 import { BandBadge } from './band-badge';
 import { Explain } from './explain';
 import {
@@ -30,10 +31,12 @@ import {
   actionsText,
   auditText,
   comebackText,
+  formatScore,
   jobsReadyText,
   onTimeText,
   realisationText,
   revenueText,
+  roundsDecidedText,
   turnaroundText,
 } from './explanations';
 import { formatPeriod, viewHref } from './periods';
@@ -189,6 +192,9 @@ export function ComparisonTable(props: {
                 ? 'None scored yet'
                 : `${formatCount(a.events)} failed of ${formatCount(a.trials)}`}
             </Explain>
+            {a.averageScore !== null && (
+              <span className="text-sm text-slate-700">Average {formatScore(a.averageScore)}</span>
+            )}
             {a.trials > 0 && (
               <Explain
                 text={bandExplanation('audit samples', a, auditRate)}
@@ -197,6 +203,12 @@ export function ComparisonTable(props: {
                 <BandBadge band={a.band} side={a.side} />
               </Explain>
             )}
+            {a.roundsAccepted + a.roundsRejected > 0 && (
+              <span className="text-sm whitespace-nowrap text-slate-700">
+                {roundsDecidedText(a)}
+              </span>
+            )}
+            {a.severity !== 'normal' && <SeverityBadge severity={a.severity} />}
           </div>
         );
       },
@@ -430,6 +442,10 @@ export function toCsv(
       'Audit samples scored',
       'Audit failures',
       'Audit band',
+      'Audit average score',
+      'Audit rounds accepted',
+      'Audit rounds rejected',
+      'Next audit inspection',
       'Open corrective actions',
       'Overdue corrective actions',
     ],
@@ -463,6 +479,10 @@ export function toCsv(
       f.audits.trials,
       f.audits.events,
       f.audits.band ?? '',
+      f.audits.averageScore === null ? '' : round(f.audits.averageScore, 1),
+      f.audits.roundsAccepted,
+      f.audits.roundsRejected,
+      f.audits.severity,
       f.correctiveActions.open,
       f.correctiveActions.overdue,
     ]),

@@ -1,3 +1,4 @@
+import type { SeverityValue } from '~/lib/validators/audits';
 import type { TurnaroundUnit } from '~/lib/validators/network';
 import type { NetworkComparisonResult, ShopFigures } from '~/server/queries/network';
 import { formatCount, formatDuration, formatInterval, formatMoney } from './format';
@@ -61,7 +62,25 @@ export const realisationText = (f: ShopFigures) =>
 export const auditText = ({ audits: a }: ShopFigures) =>
   a.rounds === 0
     ? 'No audit rounds yet for this period.'
-    : `${formatCount(a.trials)} sampled jobs scored in ${formatCount(a.rounds)} audit round${a.rounds === 1 ? '' : 's'} ending in this period; ${formatCount(a.events)} failed (needs work or critical miss), ${formatCount(a.criticalMisses)} of them critical misses.`;
+    : `${formatCount(a.trials)} sampled jobs scored in ${formatCount(a.rounds)} audit round${a.rounds === 1 ? '' : 's'} ending in this period; ${formatCount(a.events)} failed (needs work or critical miss), ${formatCount(a.criticalMisses)} of them critical misses.${a.averageScore === null ? '' : ` Average score ${formatScore(a.averageScore)} of 100.`}${a.roundsAccepted + a.roundsRejected === 0 ? '' : ` Decided: ${roundsDecidedText(a)}.`} ${severityText(a.severity)}`;
+
+/** Mean audit score out of 100, one decimal. */
+export const formatScore = (score: number) =>
+  score.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+
+export const roundsDecidedText = (a: { roundsAccepted: number; roundsRejected: number }) =>
+  `${formatCount(a.roundsAccepted)} accepted, ${formatCount(a.roundsRejected)} rejected`;
+
+const severityText = (severity: SeverityValue) =>
+  ({
+    normal: 'The next round is on normal inspection.',
+    tightened:
+      'The next round is on tightened inspection: two of the last five or fewer rounds were rejected, so samples are judged more strictly until five rounds in a row are accepted.',
+    reduced:
+      'The next round is on reduced inspection: a long run of accepted rounds earned a smaller sample.',
+    discontinued:
+      'Sampling is discontinued: five rounds were rejected on tightened inspection. No round is planned until the corrective actions are verified and the owner agrees how to resume.',
+  })[severity];
 
 export const actionsText = ({ correctiveActions: a }: ShopFigures) =>
   a.open === 0

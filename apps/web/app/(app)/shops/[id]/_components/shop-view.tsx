@@ -2,160 +2,35 @@
 
 import { useQuery } from '@tanstack/react-query';
 import Link from 'next/link';
-import { useState, type ReactNode } from 'react';
+import { OpenJobsTable } from '~/components/open-jobs-table';
 import { ChartFigure, FigureTable, LegendItem } from '~/components/charts/chart-figure';
 import { CompareBars } from '~/components/charts/compare-bars';
 import { HISTOGRAM_COLOURS, HistogramChart } from '~/components/charts/histogram-chart';
-import { Panel, StateBadge } from '~/components/ui';
-import { JOB_STATE_LABELS, SERVICE_LABELS } from '~/lib/labels';
+import { Panel } from '~/components/ui';
+import { JOB_STATE_LABELS } from '~/lib/labels';
 import { shopMetricsQuery, shopTrendsQuery, type PeriodParams } from '~/lib/queries/network';
 import type { TurnaroundUnit } from '~/lib/validators/network';
 import type { RevenueGroup, ShopMetricsResult } from '~/server/queries/network';
-import { BandBadge } from '../../../network/_components/band-badge';
-import { CensoringNote } from '../../../network/_components/censoring-note';
-import { Explain } from '../../../network/_components/explain';
 import {
-  actionsText,
-  auditText,
-  comebackText,
-  jobsReadyText,
-  onTimeText,
-  realisationText,
-  revenueText,
-  turnaroundText,
-  waitingText,
-} from '../../../network/_components/explanations';
-import {
-  bandExplanation,
-  DASH,
   formatCount,
   formatDuration,
-  formatInterval,
   formatMoney,
   formatPercent,
   inUnit,
   unitSuffix,
   unitWord,
 } from '../../../network/_components/format';
+import { CensoringNote } from '../../../network/_components/censoring-note';
 import { PeriodPicker } from '../../../network/_components/period-picker';
-import { formatDay, formatMonth, formatPeriod } from '../../../network/_components/periods';
+import { formatMonth, formatPeriod } from '../../../network/_components/periods';
 import {
   ComebackPCharts,
   RevenueTrend,
   TurnaroundTrend,
 } from '../../../network/_components/trend-charts';
 import { UnitsToggle, useUnit } from '../../../network/_components/units-toggle';
-
-const ATTRIBUTION_LABELS: Record<string, string> = {
-  workmanship: 'Workmanship',
-  part_failure: 'Part failure',
-  customer_damage: 'Customer damage',
-  unrelated: 'Unrelated',
-  undetermined: 'Undetermined',
-};
-const STATUS_LABELS = { open: 'Awaiting review', confirmed: 'Confirmed', dismissed: 'Dismissed' };
-
-function Card(props: { label: string; children: ReactNode; hint?: ReactNode }) {
-  return (
-    <div className="rounded-lg border border-sand-200 bg-white px-4 py-3 shadow-sm">
-      <dt className="text-sm font-medium text-slate-600">{props.label}</dt>
-      <dd className="mt-1 text-xl font-semibold text-slate-900 tabular-nums">{props.children}</dd>
-      {props.hint && <dd className="mt-1 text-sm text-slate-600">{props.hint}</dd>}
-    </div>
-  );
-}
-
-function Figures({ m, unit }: { m: ShopMetricsResult; unit: TurnaroundUnit }) {
-  const f = m.figures;
-  const perDay = f.shop.openMinutesPerDay;
-  const d = (x: number | null) => formatDuration(x, unit, perDay);
-  const waitingShare =
-    f.customerTurnaround.totalMinutes > 0
-      ? f.waitingPartsMinutes / f.customerTurnaround.totalMinutes
-      : null;
-  return (
-    <dl className="grid grid-cols-2 gap-4 md:grid-cols-3 xl:grid-cols-5">
-      <Card label="Jobs ready">
-        <Explain text={jobsReadyText(f)}>{formatCount(f.jobsReady)}</Explain>
-      </Card>
-      <Card label="Customer turnaround" hint="Median · p90, check-in to ready">
-        <Explain text={turnaroundText(f, 'customer', 'median', unit)}>
-          {d(f.customerTurnaround.median)}
-        </Explain>
-        {' · '}
-        <Explain text={turnaroundText(f, 'customer', 'p90', unit)}>
-          {d(f.customerTurnaround.p90)}
-        </Explain>
-      </Card>
-      <Card label="Bench turnaround" hint="Median · p90, less waiting on parts">
-        <Explain text={turnaroundText(f, 'bench', 'median', unit)}>
-          {d(f.benchTurnaround.median)}
-        </Explain>
-        {' · '}
-        <Explain text={turnaroundText(f, 'bench', 'p90', unit)}>{d(f.benchTurnaround.p90)}</Explain>
-      </Card>
-      <Card label="Waiting on parts" hint="Share of all check-in-to-ready time">
-        <Explain text={waitingText(f, unit)}>{formatPercent(waitingShare, 0)}</Explain>
-      </Card>
-      <Card label="On time" hint="Ready by the promised time">
-        <Explain text={onTimeText(f)}>{formatPercent(f.onTime.share, 0)}</Explain>
-      </Card>
-      <Card
-        label="Comeback rate"
-        hint={
-          <>
-            <span className="block">95% interval {formatInterval(f.comebacks.interval)}</span>
-            <Explain
-              text={bandExplanation('comebacks', f.comebacks, m.network.comebacks.rate)}
-              className="mt-1 no-underline"
-            >
-              <BandBadge band={f.comebacks.band} side={f.comebacks.side} />
-            </Explain>
-          </>
-        }
-      >
-        <Explain text={comebackText(f, m.settings)}>{formatPercent(f.comebacks.rate)}</Explain>
-        <span className="ml-2 text-sm font-normal text-slate-600">
-          network {formatPercent(m.network.comebacks.rate)}
-        </span>
-      </Card>
-      <Card
-        label="Revenue per bench hour"
-        hint={`Network ${formatMoney(m.network.revenue.perBenchHourCents)}`}
-      >
-        <Explain text={revenueText(f)}>{formatMoney(f.revenue.perBenchHourCents)}</Explain>
-      </Card>
-      <Card
-        label="Labour rate realised"
-        hint={`Posted rate ${formatMoney(f.shop.labourRateCents)} an hour`}
-      >
-        <Explain text={realisationText(f)}>{formatPercent(f.revenue.realisation, 0)}</Explain>
-      </Card>
-      <Card
-        label="Audit results"
-        hint={
-          f.audits.trials > 0 ? (
-            <Explain
-              text={bandExplanation('audit samples', f.audits, m.network.audits.rate)}
-              className="no-underline"
-            >
-              <BandBadge band={f.audits.band} side={f.audits.side} />
-            </Explain>
-          ) : undefined
-        }
-      >
-        <Explain text={auditText(f)}>
-          {f.audits.rounds === 0
-            ? 'No audit rounds yet'
-            : `${formatCount(f.audits.events)} failed of ${formatCount(f.audits.trials)}`}
-        </Explain>
-      </Card>
-      <Card label="Open corrective actions" hint="Now, whatever the period">
-        <Explain text={actionsText(f)}>{formatCount(f.correctiveActions.open)}</Explain>
-      </Card>
-    </dl>
-  );
-}
+import { Comebacks } from './shop-comebacks';
+import { Figures } from './shop-figures';
 
 function Histograms({ m, unit }: { m: ShopMetricsResult; unit: TurnaroundUnit }) {
   const f = m.figures;
@@ -219,117 +94,6 @@ function Histograms({ m, unit }: { m: ShopMetricsResult; unit: TurnaroundUnit })
       {fig('customer')}
       {fig('bench')}
     </div>
-  );
-}
-
-const COMEBACKS_SHOWN = 12;
-
-function Comebacks({ m, benchHref }: { m: ShopMetricsResult; benchHref: (id: number) => string }) {
-  const [all, setAll] = useState(false);
-  const rows = all ? m.comebacks : m.comebacks.slice(0, COMEBACKS_SHOWN);
-  const period = formatPeriod(m.period.from, m.period.to);
-  if (rows.length === 0) {
-    return <p className="text-slate-600">No job collected in {period} has come back so far.</p>;
-  }
-  const byAttribution = new Map<string, number>();
-  for (const r of m.comebacks) {
-    const key = r.status === 'confirmed' ? (r.attribution ?? 'undetermined') : r.status;
-    byAttribution.set(key, (byAttribution.get(key) ?? 0) + 1);
-  }
-  const summary = [...byAttribution.entries()]
-    .sort((a, b) => b[1] - a[1])
-    .map(
-      ([k, n]) =>
-        `${ATTRIBUTION_LABELS[k] ?? STATUS_LABELS[k as keyof typeof STATUS_LABELS] ?? k} ${n}`,
-    )
-    .join(' · ');
-  return (
-    <>
-      <p className="mb-3 text-slate-700">
-        {formatCount(m.comebacks.length)} return{m.comebacks.length === 1 ? '' : 's'}: {summary}.
-        Those marked “counts” are the events of the comeback rate; latest first.
-      </p>
-      <div className="overflow-x-auto">
-        <table className="w-full min-w-[52rem] text-left">
-          <caption className="sr-only">Comebacks of jobs collected in {period}</caption>
-          <thead>
-            <tr className="border-b border-sand-300 text-sm text-slate-600">
-              <th scope="col" className="py-2 pr-3 font-medium">
-                Return job
-              </th>
-              <th scope="col" className="py-2 pr-3 font-medium">
-                Original job
-              </th>
-              <th scope="col" className="py-2 pr-3 font-medium">
-                Came back
-              </th>
-              <th scope="col" className="num py-2 pr-3 font-medium">
-                Days after collection
-              </th>
-              <th scope="col" className="py-2 pr-3 font-medium">
-                Symptom
-              </th>
-              <th scope="col" className="py-2 pr-3 font-medium">
-                Review
-              </th>
-              <th scope="col" className="py-2 pr-3 font-medium">
-                Attribution and root cause
-              </th>
-              <th scope="col" className="py-2 font-medium">
-                In the rate
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r.id} className="border-b border-sand-100 align-top">
-                <th scope="row" className="py-2 pr-3 font-medium">
-                  <Link
-                    href={benchHref(r.jobId)}
-                    className="text-sea-700 underline-offset-2 hover:underline"
-                  >
-                    #{r.jobId}
-                  </Link>
-                </th>
-                <td className="py-2 pr-3">
-                  <Link
-                    href={benchHref(r.originalJobId)}
-                    className="text-sea-700 underline-offset-2 hover:underline"
-                  >
-                    #{r.originalJobId}
-                  </Link>
-                </td>
-                <td className="py-2 pr-3 whitespace-nowrap">
-                  {formatDay(r.detectedAt.slice(0, 10))}
-                </td>
-                <td className="num py-2 pr-3">{r.daysSinceCollection}</td>
-                <td className="py-2 pr-3">{r.symptom ?? DASH}</td>
-                <td className="py-2 pr-3">{STATUS_LABELS[r.status]}</td>
-                <td className="py-2 pr-3">
-                  {r.attribution ? ATTRIBUTION_LABELS[r.attribution] : DASH}
-                  {r.rootCause && (
-                    <span className="block text-sm text-slate-600">{r.rootCause}</span>
-                  )}
-                </td>
-                <td className="py-2">{r.counted ? 'Counts' : 'Not counted'}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
-      {m.comebacks.length > COMEBACKS_SHOWN && (
-        <button
-          type="button"
-          onClick={() => setAll(!all)}
-          aria-expanded={all}
-          className="mt-3 min-h-11 rounded-md border border-sea-700 px-4 font-medium text-sea-800 hover:bg-sea-50"
-        >
-          {all
-            ? `Show the latest ${COMEBACKS_SHOWN}`
-            : `Show all ${formatCount(m.comebacks.length)}`}
-        </button>
-      )}
-    </>
   );
 }
 
@@ -401,14 +165,6 @@ function OpenWork({
   benchHref: (id: number) => string;
 }) {
   const name = m.figures.shop.name;
-  const zone = m.figures.shop.timeZone;
-  const day = (iso: string) =>
-    new Intl.DateTimeFormat('en-GB', {
-      timeZone: zone,
-      day: 'numeric',
-      month: 'short',
-      year: 'numeric',
-    }).format(new Date(iso));
   return (
     <>
       <ul className="mb-4 flex flex-wrap gap-2">
@@ -433,71 +189,14 @@ function OpenWork({
           </Link>
         </li>
       </ul>
-      {m.openLongest.length === 0 ? (
-        <p className="py-4 text-slate-600">
-          No work in progress: every reel is ready for pickup or collected.
-        </p>
-      ) : (
-        <div className="overflow-x-auto">
-          <table className="w-full min-w-[44rem] text-left">
-            <caption className="sr-only">
-              Open jobs at {name} not yet ready, open longest first
-            </caption>
-            <thead>
-              <tr className="border-b border-sand-300 text-sm text-slate-600">
-                <th scope="col" className="py-2 pr-4 font-medium">
-                  Job
-                </th>
-                <th scope="col" className="py-2 pr-4 font-medium">
-                  Customer and reel
-                </th>
-                <th scope="col" className="py-2 pr-4 font-medium">
-                  Service
-                </th>
-                <th scope="col" className="py-2 pr-4 font-medium">
-                  State
-                </th>
-                <th scope="col" className="py-2 pr-4 font-medium">
-                  Technician
-                </th>
-                <th scope="col" className="py-2 pr-4 font-medium">
-                  Checked in
-                </th>
-                <th scope="col" className="num py-2 font-medium">
-                  Days open
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {m.openLongest.map((j) => (
-                <tr key={j.id} className="border-b border-sand-100 align-top">
-                  <th scope="row" className="py-3 pr-4 font-medium tabular-nums">
-                    <Link
-                      href={benchHref(j.id)}
-                      className="text-sea-700 underline-offset-2 hover:underline"
-                    >
-                      #{j.id}
-                    </Link>
-                  </th>
-                  <td className="py-3 pr-4">
-                    <span className="block font-medium">{j.customerName}</span>
-                    <span className="block text-sm text-slate-600">{j.reel}</span>
-                  </td>
-                  <td className="py-3 pr-4">
-                    {SERVICE_LABELS[j.serviceType as keyof typeof SERVICE_LABELS] ?? j.serviceType}
-                  </td>
-                  <td className="py-3 pr-4">
-                    <StateBadge state={j.state} />
-                  </td>
-                  <td className="py-3 pr-4">{j.technicianName ?? 'Unassigned'}</td>
-                  <td className="py-3 pr-4 whitespace-nowrap">{day(j.checkedInAt)}</td>
-                  <td className="num py-3">{formatCount(j.daysOpen)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <OpenJobsTable
+        rows={m.openLongest}
+        timeZone={m.figures.shop.timeZone}
+        caption={`Open jobs at ${name} not yet ready, open longest first`}
+        showTechnician
+        href={benchHref}
+        empty="No work in progress: every reel is ready for pickup or collected."
+      />
     </>
   );
 }

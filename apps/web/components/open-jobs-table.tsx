@@ -1,17 +1,34 @@
 import Link from 'next/link';
+import type { ReactNode } from 'react';
 import { Empty, StateBadge } from '~/components/ui';
-import { daysBetween, formatInZone } from '~/lib/format';
+import { formatInZone } from '~/lib/format';
 import { SERVICE_LABELS } from '~/lib/labels';
-import type { OpenJobRow } from '~/server/queries/jobs';
+import type { JobState } from '~/lib/labels';
 
+export interface OpenJobsTableRow {
+  id: number;
+  state: JobState;
+  serviceType: string;
+  customerName: string;
+  reel: string;
+  technicianName: string | null;
+  /** A Date on the server, an ISO string once it has crossed to a client component. */
+  checkedInAt: Date | string;
+  daysOpen: number;
+}
+
+/** Open jobs with their age, on the home page and on a shop's page. */
 export function OpenJobsTable(props: {
-  jobs: OpenJobRow[];
+  rows: readonly OpenJobsTableRow[];
   timeZone: string;
-  asOf: Date;
   caption: string;
   showTechnician?: boolean;
+  empty?: ReactNode;
+  href?: (id: number) => string;
 }) {
-  if (props.jobs.length === 0) return <Empty>No open jobs. Every reel is collected.</Empty>;
+  const href = props.href ?? ((id: number) => `/bench/jobs/${id}`);
+  if (props.rows.length === 0)
+    return <Empty>{props.empty ?? 'No open jobs. Every reel is collected.'}</Empty>;
   return (
     <div className="overflow-x-auto">
       <table className="w-full min-w-[44rem] text-left">
@@ -44,11 +61,11 @@ export function OpenJobsTable(props: {
           </tr>
         </thead>
         <tbody>
-          {props.jobs.map((job) => (
+          {props.rows.map((job) => (
             <tr key={job.id} className="border-b border-sand-100 align-top">
               <th scope="row" className="py-3 pr-4 font-medium tabular-nums">
                 <Link
-                  href={`/bench/jobs/${job.id}`}
+                  href={href(job.id)}
                   className="text-sea-700 underline-offset-2 hover:underline"
                 >
                   #{job.id}
@@ -68,9 +85,9 @@ export function OpenJobsTable(props: {
                 <td className="py-3 pr-4">{job.technicianName ?? 'Unassigned'}</td>
               )}
               <td className="py-3 pr-4 whitespace-nowrap">
-                {formatInZone(job.checkedInAt, props.timeZone)}
+                {formatInZone(new Date(job.checkedInAt), props.timeZone)}
               </td>
-              <td className="num py-3">{daysBetween(job.checkedInAt, props.asOf)}</td>
+              <td className="num py-3">{job.daysOpen.toLocaleString('en-US')}</td>
             </tr>
           ))}
         </tbody>
