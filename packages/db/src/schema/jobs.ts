@@ -64,8 +64,8 @@ export const jobs = pgTable(
     updatedAt: updatedAt(),
   },
   (t) => [
-    index('jobs_shop_ready_at_idx').on(t.shopId, t.readyAt),
-    // The network comparison reads a period's ready jobs from this index alone (index-only scan).
+    // The network comparison reads a period's ready jobs from this index alone (index-only scan);
+    // it also serves every other lookup by shop and ready_at.
     index('jobs_shop_ready_figures_idx').on(
       t.shopId,
       t.readyAt,
@@ -79,7 +79,9 @@ export const jobs = pgTable(
     ),
     index('jobs_shop_checked_in_at_idx').on(t.shopId, t.checkedInAt),
     index('jobs_shop_state_idx').on(t.shopId, t.state),
-    index('jobs_shop_collected_at_idx').on(t.shopId, t.collectedAt),
+    // With the id, a period's collected jobs meet their comebacks in a hash join read from this
+    // index alone, instead of one primary-key lookup per comeback.
+    index('jobs_shop_collected_at_idx').on(t.shopId, t.collectedAt, t.id),
     index('jobs_reel_id_idx').on(t.reelId),
     index('jobs_customer_id_idx').on(t.customerId),
     index('jobs_technician_id_idx').on(t.technicianId),
