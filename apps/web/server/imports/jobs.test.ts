@@ -1,4 +1,4 @@
-import { asc, count, eq } from '@reelwright/db';
+import { asc, count, eq, sql } from '@reelwright/db';
 import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   activityLog,
@@ -141,6 +141,17 @@ describe('CSV import of past jobs', () => {
       .where(eq(activityLog.action, 'jobs.import'));
     expect(log).toMatchObject({ userId: net.lead.id, entityId: summary.batchId });
   });
+
+  it('leaves planner statistics and a set visibility map, so the network view reads indexes alone', async () => {
+    await importCsv(toCsv(importRows(3000)));
+    const { rows } = await db().execute<{ pages: number; visible: number; estimate: number }>(
+      sql`select relpages as pages, relallvisible as visible, reltuples::float as estimate
+        from pg_class where relname = 'jobs'`,
+    );
+    expect(rows[0]!.pages).toBeGreaterThan(10);
+    expect(rows[0]!.visible).toBe(rows[0]!.pages);
+    expect(rows[0]!.estimate).toBe(3000);
+  }, 30_000);
 
   it('imports nothing when one row is bad, and lists that row and column', async () => {
     const rows = importRows(30);

@@ -256,7 +256,7 @@ export async function runImport(
   const note = `Imported from ${file.fileName}`;
 
   try {
-    return await conn.transaction(async (tx) => {
+    const summary = await conn.transaction(async (tx) => {
       const [batch] = await tx
         .insert(importBatches)
         .values({
@@ -479,6 +479,8 @@ export async function runImport(
         seconds: Math.round(seconds * 100) / 100,
       };
     });
+    await refreshAfterBulkLoad(conn);
+    return summary;
   } catch (error) {
     // Another import of the same file finished first: the partial unique index says so.
     if (pgError(error)?.code === '23505') {
@@ -488,6 +490,22 @@ export async function runImport(
       );
     }
     throw error;
+  }
+}
+
+/**
+ * After a bulk load, planner statistics and the visibility map for the tables it wrote, so the
+ * network view's index-only scans skip the heap: PGlite has no autovacuum, and a server's comes
+ * later. VACUUM cannot run in the transaction. The import has committed by now, so a failure here
+ * is logged rather than reported as a failed import.
+ */
+async function refreshAfterBulkLoad(conn: Awaited<ReturnType<typeof db>>) {
+  try {
+    await conn.execute(
+      sql`vacuum (analyze) ${jobs}, ${jobEvents}, ${benchSessions}, ${customers}, ${reels}`,
+    );
+  } catch (error) {
+    console.warn('[import] refreshing statistics after the import failed:', error);
   }
 }
 
