@@ -73,6 +73,25 @@ describe(`the demo network (${TARGET})`, () => {
     await expect(seedDemo(db)).rejects.toThrow(/only fills an empty one/);
   });
 
+  it('leaves planner statistics and a set visibility map, so index-only scans skip the heap', async () => {
+    const tables = await rows<{
+      name: string;
+      live: number;
+      estimate: number;
+      pages: number;
+      visible: number;
+    }>(
+      db,
+      sql`select c.relname as name, c.reltuples::float as estimate, c.relpages as pages,
+          c.relallvisible as visible, (select count(*)::int from jobs) as live
+        from pg_class c where c.relname = 'jobs'`,
+    );
+    const jobs = tables[0]!;
+    expect(jobs.pages).toBeGreaterThan(0);
+    expect(jobs.visible).toBe(jobs.pages);
+    expect(Math.abs(jobs.estimate - jobs.live)).toBeLessThan(jobs.live * 0.01);
+  });
+
   it('has two regions, seven shops and at least 25,000 jobs over two years', async () => {
     const [counts] = await rows<{
       regions: number;
