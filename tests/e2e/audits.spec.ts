@@ -23,6 +23,13 @@ interface RoundDetail {
   emails: { kind: string; to: string; subject: string }[] | null;
 }
 
+interface AuditFigures {
+  averageScore: number | null;
+  roundsAccepted: number;
+  roundsRejected: number;
+  severity: string;
+}
+
 interface PlannedRound {
   id: number;
   lotSize: number;
@@ -334,6 +341,19 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   await manager.page.getByLabel('To', { exact: true }).fill('2026-10-18');
   await expect(planPanel).toContainText('Tightened inspection');
   await expect(planPanel).toContainText('2 of 5 or fewer consecutive rounds were rejected');
+
+  // The shop's figures carry both rounds: none accepted, two rejected, the next one tightened.
+  const period = 'from=2026-10-01&to=2026-11-30';
+  const metrics = await manager.request.get(`/api/shops/${marram}/metrics?${period}`);
+  expect(metrics.status()).toBe(200);
+  const { audits } = ((await metrics.json()) as { figures: { audits: AuditFigures } }).figures;
+  expect(audits).toMatchObject({ roundsAccepted: 0, roundsRejected: 2, severity: 'tightened' });
+  expect(audits.averageScore).not.toBeNull();
+  await manager.page.goto(`/shops/${marram}?${period}`);
+  const figures = manager.page.getByRole('region', { name: /^Figures for/ });
+  await expect(figures).toContainText('0 accepted, 2 rejected');
+  await expect(figures).toContainText('Tightened inspection');
+  await expect(figures).toContainText(audits.averageScore!.toFixed(1));
 
   for (const c of [manager, auditor, lead]) await c.context.close();
 });
