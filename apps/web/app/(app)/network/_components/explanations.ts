@@ -1,7 +1,7 @@
 import type { SeverityValue } from '~/lib/validators/audits';
 import type { TurnaroundUnit } from '~/lib/validators/network';
 import type { NetworkComparisonResult, ShopFigures } from '~/server/queries/network';
-import { formatCount, formatDuration, formatInterval, formatMoney } from './format';
+import { formatCount, formatDuration, formatInterval, formatMoney, formatPercent } from './format';
 
 // Plain-language explanations of each figure, shown on hover and focus wherever it appears.
 
@@ -62,7 +62,7 @@ export const realisationText = (f: ShopFigures) =>
 export const auditText = ({ audits: a }: ShopFigures) =>
   a.rounds === 0
     ? 'No audit rounds yet for this period.'
-    : `${formatCount(a.trials)} sampled jobs scored in ${formatCount(a.rounds)} audit round${a.rounds === 1 ? '' : 's'} ending in this period; ${formatCount(a.events)} failed (needs work or critical miss), ${formatCount(a.criticalMisses)} of them critical misses.${a.averageScore === null ? '' : ` Average score ${formatScore(a.averageScore)} of 100.`}${a.roundsAccepted + a.roundsRejected === 0 ? '' : ` Decided: ${roundsDecidedText(a)}.`} ${severityText(a.severity)}`;
+    : `${formatCount(a.trials)} sampled jobs scored in ${formatCount(a.rounds)} audit round${a.rounds === 1 ? '' : 's'} ending in this period; ${formatCount(a.events)} failed (needs work or critical miss), ${formatCount(a.criticalMisses)} of them critical misses.${a.trials === 0 ? '' : ` Failure rate ${formatPercent(a.rate)}, 95% Wilson interval ${formatInterval(a.interval)}.`}${a.averageScore === null ? '' : ` Average score ${formatScore(a.averageScore)} of 100.`}${a.roundsAccepted + a.roundsRejected === 0 ? '' : ` Decided: ${roundsDecidedText(a)}.`} ${severityText(a.severity)}`;
 
 /** Mean audit score out of 100, one decimal. */
 export const formatScore = (score: number) =>

@@ -107,12 +107,18 @@ export function Figures({ m, unit }: { m: ShopMetricsResult; unit: TurnaroundUni
         label="Audit results"
         hint={
           f.audits.trials > 0 ? (
-            <Explain
-              text={bandExplanation('audit samples', f.audits, m.network.audits.rate)}
-              className="no-underline"
-            >
-              <BandBadge band={f.audits.band} side={f.audits.side} />
-            </Explain>
+            <>
+              <span className="block">
+                {formatPercent(f.audits.rate)} failed, 95% interval{' '}
+                {formatInterval(f.audits.interval)}
+              </span>
+              <Explain
+                text={bandExplanation('audit samples', f.audits, m.network.audits.rate)}
+                className="mt-1 no-underline"
+              >
+                <BandBadge band={f.audits.band} side={f.audits.side} />
+              </Explain>
+            </>
           ) : undefined
         }
       >
