@@ -351,9 +351,15 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   expect(audits.averageScore).not.toBeNull();
   await manager.page.goto(`/shops/${marram}?${period}`);
   const figures = manager.page.getByRole('region', { name: /^Figures for/ });
-  await expect(figures).toContainText('0 accepted, 2 rejected');
+  await expect(figures.getByText('2 of 2', { exact: true })).toBeVisible();
   await expect(figures).toContainText('Tightened inspection');
   await expect(figures).toContainText(audits.averageScore!.toFixed(1));
+  await figures.screenshot({ path: screenshotPath('audits-shop-figures-1280') });
+  await manager.page.goto(`/network?${period}`);
+  const row = manager.page.getByRole('row', { name: /Marram Point/ });
+  await expect(row).toContainText('2 of 2 rounds rejected');
+  await expect(row).toContainText('Tightened inspection');
+  await manager.page.screenshot({ path: screenshotPath('audits-network-1280'), fullPage: true });
 
   for (const c of [manager, auditor, lead]) await c.context.close();
 });

@@ -68,8 +68,10 @@ export const auditText = ({ audits: a }: ShopFigures) =>
 export const formatScore = (score: number) =>
   score.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 
-export const roundsDecidedText = (a: { roundsAccepted: number; roundsRejected: number }) =>
-  `${formatCount(a.roundsAccepted)} accepted, ${formatCount(a.roundsRejected)} rejected`;
+export const roundsDecidedText = (a: { roundsAccepted: number; roundsRejected: number }) => {
+  const decided = a.roundsAccepted + a.roundsRejected;
+  return `${formatCount(a.roundsRejected)} of ${formatCount(decided)} round${decided === 1 ? '' : 's'} rejected`;
+};
 
 const severityText = (severity: SeverityValue) =>
   ({

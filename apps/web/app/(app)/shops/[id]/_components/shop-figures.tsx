@@ -13,7 +13,6 @@ import {
   onTimeText,
   realisationText,
   revenueText,
-  roundsDecidedText,
   turnaroundText,
   waitingText,
 } from '../../../network/_components/explanations';
@@ -140,11 +139,19 @@ export function Figures({ m, unit }: { m: ShopMetricsResult; unit: TurnaroundUni
           {f.audits.averageScore === null ? 'None scored yet' : formatScore(f.audits.averageScore)}
         </Explain>
       </Card>
-      <Card label="Audit rounds decided" hint={<SeverityBadge severity={f.audits.severity} />}>
+      <Card
+        label="Audit rounds rejected"
+        hint={
+          <>
+            <span className="mb-1 block">Of the rounds decided in the period</span>
+            <SeverityBadge severity={f.audits.severity} />
+          </>
+        }
+      >
         <Explain text={auditText(f)}>
           {f.audits.roundsAccepted + f.audits.roundsRejected === 0
-            ? 'None in this period'
-            : roundsDecidedText(f.audits)}
+            ? 'None decided'
+            : `${formatCount(f.audits.roundsRejected)} of ${formatCount(f.audits.roundsAccepted + f.audits.roundsRejected)}`}
         </Explain>
       </Card>
       <Card label="Open corrective actions" hint="Now, whatever the period">
