@@ -11,6 +11,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
+import { guideLine } from './guide-line';
 import { niceTicks } from './ticks';
 
 export interface FunnelPoint {
@@ -172,48 +173,15 @@ export function FunnelChart(props: {
             width={52}
             allowDataOverflow
           />
+          <Line {...guideLine('upper998', '99.8% upper limit', FUNNEL_COLOURS.limit998)} />
+          <Line {...guideLine('lower998', '99.8% lower limit', FUNNEL_COLOURS.limit998)} />
           <Line
-            dataKey="upper998"
-            name="99.8% upper limit"
-            stroke={FUNNEL_COLOURS.limit998}
-            strokeWidth={1.5}
-            dot={false}
-            isAnimationActive={false}
+            {...guideLine('upper95', '95% upper limit', FUNNEL_COLOURS.limit95, { dash: '5 4' })}
           />
           <Line
-            dataKey="lower998"
-            name="99.8% lower limit"
-            stroke={FUNNEL_COLOURS.limit998}
-            strokeWidth={1.5}
-            dot={false}
-            isAnimationActive={false}
+            {...guideLine('lower95', '95% lower limit', FUNNEL_COLOURS.limit95, { dash: '5 4' })}
           />
-          <Line
-            dataKey="upper95"
-            name="95% upper limit"
-            stroke={FUNNEL_COLOURS.limit95}
-            strokeWidth={1.5}
-            strokeDasharray="5 4"
-            dot={false}
-            isAnimationActive={false}
-          />
-          <Line
-            dataKey="lower95"
-            name="95% lower limit"
-            stroke={FUNNEL_COLOURS.limit95}
-            strokeWidth={1.5}
-            strokeDasharray="5 4"
-            dot={false}
-            isAnimationActive={false}
-          />
-          <Line
-            dataKey="network"
-            name="Network rate"
-            stroke={FUNNEL_COLOURS.network}
-            strokeWidth={2}
-            dot={false}
-            isAnimationActive={false}
-          />
+          <Line {...guideLine('network', 'Network rate', FUNNEL_COLOURS.network, { width: 2 })} />
           {(Object.keys(BAND_STYLE) as FairnessBand[]).map((band) => (
             <Scatter
               key={band}

@@ -9,6 +9,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
+import { guideLine } from './guide-line';
 import { niceTicks } from './ticks';
 
 export interface PChartDatum {
@@ -18,6 +19,9 @@ export interface PChartDatum {
   upper: number | null;
   signal: 'above' | 'below' | null;
 }
+
+/** The 3-sigma limits change with each month's volume, so they are drawn as steps. */
+const limit = { width: 1.25, dash: '4 3', step: true };
 
 export const P_CHART_COLOURS = {
   rate: '#1f514a',
@@ -71,36 +75,9 @@ export function PChart(props: {
             ]}
             labelFormatter={(l: string) => props.formatLabel(l)}
           />
-          <Line
-            dataKey="upper"
-            name="Upper limit"
-            type="step"
-            stroke={P_CHART_COLOURS.limit}
-            strokeWidth={1.25}
-            strokeDasharray="4 3"
-            dot={false}
-            connectNulls={false}
-            isAnimationActive={false}
-          />
-          <Line
-            dataKey="lower"
-            name="Lower limit"
-            type="step"
-            stroke={P_CHART_COLOURS.limit}
-            strokeWidth={1.25}
-            strokeDasharray="4 3"
-            dot={false}
-            connectNulls={false}
-            isAnimationActive={false}
-          />
-          <Line
-            dataKey="center"
-            name="Centre line"
-            stroke={P_CHART_COLOURS.centre}
-            strokeWidth={1.5}
-            dot={false}
-            isAnimationActive={false}
-          />
+          <Line {...guideLine('upper', 'Upper limit', P_CHART_COLOURS.limit, limit)} />
+          <Line {...guideLine('lower', 'Lower limit', P_CHART_COLOURS.limit, limit)} />
+          <Line {...guideLine('center', 'Centre line', P_CHART_COLOURS.centre)} />
           <Line
             dataKey="rate"
             name="Comeback rate"
