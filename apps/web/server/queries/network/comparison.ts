@@ -59,6 +59,18 @@ export interface ShopCounts {
 const pgArray = (values: readonly (string | number)[]) => `{${values.join(',')}}`;
 
 /**
+ * The Hyndman & Fan type 7 quantile of a sorted integer array at h = p × (n − 1), with
+ * percentile_cont's own float8 arithmetic (lo + (h − ⌊h⌋) × (hi − lo)), so the figures do not
+ * change. Sorting integers for array_agg costs far less than percentile_cont's sort of float8
+ * values (passed by reference, one allocation each, on 32-bit PGlite).
+ */
+const type7 = (sorted: string, h: string) =>
+  sql.raw(`case when floor(${h}) = ceil(${h}) then ${sorted}[floor(${h})::int + 1]::float8
+        else ${sorted}[floor(${h})::int + 1]
+          + (${h} - floor(${h})) * (${sorted}[ceil(${h})::int + 1] - ${sorted}[floor(${h})::int + 1])
+        end`);
+
+/**
  * The one SQL aggregate behind the comparison: per shop, the jobs that became ready in the period
  * (turnaround quantiles, on-time, money, bench time), the jobs collected in it and those of them
  * that came back (trials and events of the comeback rate), audit samples of rounds ending in it,
@@ -70,10 +82,12 @@ const pgArray = (values: readonly (string | number)[]) => `{${values.join(',')}}
  * figures are read from the jobs_shop_ready_figures_idx columns alone (an index-only scan once the
  * table is vacuumed).
  *
- * percentile_cont is Hyndman & Fan type 7, the definition @reelwright/metrics uses. The warranty
- * window is whole 24-hour days as in the metrics engine (an interval in days would follow the
- * session zone's daylight-saving changes). Each part is a lateral subquery per shop so that it
- * reads the (shop, instant) indexes whatever the planner's statistics say.
+ * Medians and 90th percentiles are Hyndman & Fan type 7, the definition @reelwright/metrics uses,
+ * taken from the sorted values (type7). The warranty window is whole 24-hour days as in the metrics
+ * engine (an interval in days would follow the session zone's daylight-saving changes); "window
+ * closed" compares collected_at with one instant, asOf less the window, rather than doing interval
+ * arithmetic on every row. Each part is a lateral subquery per shop so that it reads the
+ * (shop, instant) indexes whatever the planner's statistics say.
  */
 export async function aggregateShops(
   conn: Db,
@@ -85,6 +99,8 @@ export async function aggregateShops(
   if (shopIds.length === 0) return new Map();
   const at = asOf.toISOString();
   const hours = settings.warrantyDays * 24;
+  const window = `${hours} hours`;
+  const closedBy = new Date(asOf.getTime() - hours * 3_600_000).toISOString();
   const counted = pgArray(settings.countedAttributions);
   const shopsInPeriod = sql`
     with s as (
@@ -103,24 +119,24 @@ export async function aggregateShops(
     ${shopsInPeriod}
     select s.id as "shopId",
       r.jobs_ready as "jobsReady",
-      r.customer_n as "customerN", r.customer_total as "customerTotal",
-      r.customer_q[1] as "customerMedian", r.customer_q[2] as "customerP90",
-      r.bench_n as "benchN", r.bench_total as "benchTotal",
-      r.bench_q[1] as "benchMedian", r.bench_q[2] as "benchP90",
+      coalesce(cardinality(r.customer_sorted), 0) as "customerN", r.customer_total as "customerTotal",
+      ${type7('r.customer_sorted', 'h.c50')} as "customerMedian",
+      ${type7('r.customer_sorted', 'h.c90')} as "customerP90",
+      coalesce(cardinality(r.bench_sorted), 0) as "benchN", r.bench_total as "benchTotal",
+      ${type7('r.bench_sorted', 'h.b50')} as "benchMedian",
+      ${type7('r.bench_sorted', 'h.b90')} as "benchP90",
       r.waiting_minutes as "waitingMinutes", r.promised, r.on_time as "onTime",
       r.revenue_cents as "revenueCents", r.labour_cents as "labourCents",
       r.bench_minutes as "benchMinutes"
     from s
     cross join lateral (
       select count(*)::int as jobs_ready,
-        count(j.customer_turnaround_minutes)::int as customer_n,
         coalesce(sum(j.customer_turnaround_minutes), 0)::float8 as customer_total,
-        percentile_cont(array[0.5, 0.9]) within group (order by j.customer_turnaround_minutes)
-          as customer_q,
-        count(j.bench_turnaround_minutes)::int as bench_n,
+        array_agg(j.customer_turnaround_minutes order by j.customer_turnaround_minutes)
+          filter (where j.customer_turnaround_minutes is not null) as customer_sorted,
         coalesce(sum(j.bench_turnaround_minutes), 0)::float8 as bench_total,
-        percentile_cont(array[0.5, 0.9]) within group (order by j.bench_turnaround_minutes)
-          as bench_q,
+        array_agg(j.bench_turnaround_minutes order by j.bench_turnaround_minutes)
+          filter (where j.bench_turnaround_minutes is not null) as bench_sorted,
         coalesce(sum(j.customer_turnaround_minutes - j.bench_turnaround_minutes), 0)::float8
           as waiting_minutes,
         count(j.promised_at)::int as promised,
@@ -131,6 +147,12 @@ export async function aggregateShops(
       from jobs j
       where j.shop_id = s.id and j.ready_at >= s.t0 and j.ready_at < s.t1
     ) r
+    cross join lateral (
+      select 0.5::float8 * (cardinality(r.customer_sorted) - 1) as c50,
+        0.9::float8 * (cardinality(r.customer_sorted) - 1) as c90,
+        0.5::float8 * (cardinality(r.bench_sorted) - 1) as b50,
+        0.9::float8 * (cardinality(r.bench_sorted) - 1) as b90
+    ) h
   `),
     conn.execute<Row>(sql`
     ${shopsInPeriod}
@@ -144,8 +166,7 @@ export async function aggregateShops(
     from s
     cross join lateral (
       select count(*)::int as collected,
-        (count(*) filter (where j.collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz))::int
-          as closed
+        (count(*) filter (where j.collected_at <= ${closedBy}::timestamptz))::int as closed
       from jobs j
       where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
         and j.collected_at <= ${at}::timestamptz
@@ -155,7 +176,7 @@ export async function aggregateShops(
         (count(*) filter (where k.counted))::int as events,
         (count(*) filter (where k.pending and not k.came_back))::int as awaiting_review
       from (
-        select j.collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz as closed,
+        select j.collected_at <= ${closedBy}::timestamptz as closed,
           bool_or(cb.status = 'confirmed') as came_back,
           bool_or(cb.status = 'confirmed'
             and cb.attribution = any(${counted}::comeback_attribution[])) as counted,
@@ -164,11 +185,11 @@ export async function aggregateShops(
         join jobs j on j.id = cb.original_job_id
         where cb.original_shop_id = s.id and j.shop_id = s.id
           and cb.detected_at >= s.t0
-          and cb.detected_at < s.t1 + ${hours} * interval '1 hour'
+          and cb.detected_at < s.t1 + ${window}::interval
           and cb.detected_at <= ${at}::timestamptz
           and j.collected_at >= s.t0 and j.collected_at < s.t1
           and cb.detected_at >= j.collected_at
-          and cb.detected_at < j.collected_at + ${hours} * interval '1 hour'
+          and cb.detected_at < j.collected_at + ${window}::interval
         group by j.id, j.collected_at
       ) k
     ) b
