@@ -41,7 +41,7 @@ export function ChartFigure(props: {
 /** A legend entry: the mark drawn in the chart and its words. */
 export function LegendItem(props: {
   colour: string;
-  mark?: 'dot' | 'line' | 'dash' | 'triangle' | 'diamond';
+  mark?: 'dot' | 'ring' | 'line' | 'dash' | 'triangle' | 'diamond';
   children: ReactNode;
 }) {
   const mark = props.mark ?? 'dot';
@@ -49,6 +49,9 @@ export function LegendItem(props: {
     <span className="inline-flex items-center gap-1.5 text-sm text-slate-700">
       <svg aria-hidden="true" width="18" height="12" viewBox="0 0 18 12">
         {mark === 'dot' && <circle cx="9" cy="6" r="4.5" fill={props.colour} />}
+        {mark === 'ring' && (
+          <circle cx="9" cy="6" r="4" fill="#ffffff" stroke={props.colour} strokeWidth="1.5" />
+        )}
         {mark === 'triangle' && <path d="M9 1 L14.5 11 L3.5 11 Z" fill={props.colour} />}
         {mark === 'diamond' && <path d="M9 0.5 L15 6 L9 11.5 L3 6 Z" fill={props.colour} />}
         {mark === 'line' && (

@@ -18,6 +18,8 @@ export interface PChartDatum {
   lower: number | null;
   upper: number | null;
   signal: 'above' | 'below' | null;
+  /** A month whose figures are not final yet: drawn as a hollow ring. */
+  provisional?: boolean;
 }
 
 /** The 3-sigma limits change with each month's volume, so they are drawn as steps. */
@@ -32,7 +34,8 @@ export const P_CHART_COLOURS = {
 
 /**
  * A p-chart: the monthly rate, its centre line, and the 3-sigma limits for each month's own
- * volume (drawn as steps). Months outside the limits are drawn as larger brick-red diamonds.
+ * volume (drawn as steps). Months outside the limits are drawn as larger brick-red diamonds;
+ * months not final yet as hollow rings.
  */
 export function PChart(props: {
   points: PChartDatum[];
@@ -98,6 +101,18 @@ export function PChart(props: {
                   />
                 );
               }
+              if (p.payload.provisional)
+                return (
+                  <circle
+                    key={key}
+                    cx={p.cx}
+                    cy={p.cy}
+                    r={4}
+                    fill="#ffffff"
+                    stroke={P_CHART_COLOURS.rate}
+                    strokeWidth={1.5}
+                  />
+                );
               return <circle key={key} cx={p.cx} cy={p.cy} r={3} fill={P_CHART_COLOURS.rate} />;
             }}
           />

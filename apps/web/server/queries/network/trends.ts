@@ -1,5 +1,11 @@
 import { sql, type Db } from '@reelwright/db';
-import { pChart, rateRealisation, revenuePerBenchHour } from '@reelwright/metrics';
+import {
+  pChart,
+  pChartLimits,
+  rateRealisation,
+  revenuePerBenchHour,
+  type PChartPoint,
+} from '@reelwright/metrics';
 import type {
   NetworkTrendsQuery,
   PeriodQuery,
@@ -16,7 +22,7 @@ import {
   type NetworkShop,
   type QueryContext,
 } from './context';
-import type { TrendsResult } from './types';
+import type { MonthlyComebackPoint, TrendsResult } from './types';
 
 /** "YYYY-MM" labels of every month the period touches, in order. */
 export function monthsOf(period: PeriodQuery): string[] {
@@ -61,13 +67,14 @@ async function monthlyRows(
     // As in the comparison: closed windows counted over the index, returns from the comebacks.
     const { rows } = await conn.execute<Row>(sql`
       with s as (${bounds(ids, period)})
-      select s.id as "shopId", m.month, m.trials, m.events
+      select s.id as "shopId", m.month, m.trials, m.events, m.open
       from s
       cross join lateral (
         select c.month, (c.closed + coalesce(b.open_came_back, 0))::int as trials,
-          coalesce(b.events, 0)::int as events
+          coalesce(b.events, 0)::int as events, (c.collected - c.closed)::int as open
         from (
-          select ${month} as month, count(*) filter (where ${closed}) as closed
+          select ${month} as month, count(*) filter (where ${closed}) as closed,
+            count(*) as collected
           from jobs j
           where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
             and j.collected_at <= ${at}::timestamptz
@@ -134,6 +141,37 @@ async function monthlyRows(
 
 const num = (v: string | number | null | undefined) => (v == null ? null : Number(v));
 
+/**
+ * A p-chart in which months with warranty windows still open are provisional: their rate counts
+ * returns but not yet the jobs that will stay away, so it reads high. The centre line comes from
+ * the final months only, and a provisional month is drawn against its limits but never signals.
+ */
+export function provisionalPChart(months: readonly (PChartPoint & { open: number })[]): {
+  center: number | null;
+  points: MonthlyComebackPoint[];
+} {
+  const final = months.filter((m) => m.open === 0);
+  const chart = pChart(final);
+  const byLabel = new Map(chart.points.map((p) => [p.label, p]));
+  return {
+    center: chart.center,
+    points: months.map((m) => {
+      const done = byLabel.get(m.label);
+      if (done) return { ...done, open: 0, provisional: false };
+      const limits =
+        chart.center === null || m.trials === 0 ? null : pChartLimits(chart.center, m.trials);
+      return {
+        ...m,
+        rate: m.trials === 0 ? null : m.events / m.trials,
+        lower: limits?.lower ?? null,
+        upper: limits?.upper ?? null,
+        signal: null,
+        provisional: true,
+      };
+    }),
+  };
+}
+
 /** Monthly series for the given shops over the period's months, figures by @reelwright/metrics. */
 async function trendsFor(
   conn: Db,
@@ -159,13 +197,16 @@ async function trendsFor(
       period: info,
       months,
       shops: shops.map((shop) => {
-        const chart = pChart(
-          months.map((label) => {
-            const r = cell(shop, label);
-            return { label, events: Number(r?.events ?? 0), trials: Number(r?.trials ?? 0) };
-          }),
-        );
-        return { shop: toRef(shop), center: chart.center, points: chart.points };
+        const all = months.map((label) => {
+          const r = cell(shop, label);
+          return {
+            label,
+            events: Number(r?.events ?? 0),
+            trials: Number(r?.trials ?? 0),
+            open: Number(r?.open ?? 0),
+          };
+        });
+        return { shop: toRef(shop), ...provisionalPChart(all) };
       }),
     };
   }

@@ -136,11 +136,18 @@ export interface NetworkComparisonResult {
   shops: ShopFigures[];
 }
 
+export interface MonthlyComebackPoint extends PChartRow {
+  /** Jobs collected that month whose warranty window is still open (left out of the rate). */
+  open: number;
+  /** True while any window of the month is open: the rate is not final and never signals. */
+  provisional: boolean;
+}
+
 export interface MonthlyComebacks {
   shop: ShopRef;
-  /** p-chart around the shop's own rate over the months shown. */
+  /** p-chart around the shop's own rate over the months whose figures are final. */
   center: number | null;
-  points: PChartRow[];
+  points: MonthlyComebackPoint[];
 }
 
 export interface MonthlyTurnaround {

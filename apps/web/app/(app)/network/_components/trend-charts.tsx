@@ -50,14 +50,19 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
         const id = `pchart-${shop.id}`;
         const title = `${shop.name}: monthly comeback rate, ${span} (p-chart)`;
         const signals = points.filter((p) => p.signal);
+        const provisional = points.filter((p) => p.provisional && p.trials > 0);
+        const notFinal =
+          provisional.length === 0
+            ? ''
+            : ` ${provisionalText(provisional.map((p) => p.label))} not final: their warranty windows are still open, so they count returns but not yet the jobs that will stay away; they are drawn as rings and not judged against the limits.`;
         const summary =
           center === null
-            ? 'No counted jobs in these months.'
-            : `Centre line ${formatPercent(center)} (the shop's own rate over these months). ${
+            ? `No month with final figures to set a centre line.${notFinal}`
+            : `Centre line ${formatPercent(center)} (the shop's own rate over the months with final figures). ${
                 signals.length === 0
-                  ? 'Every month is inside its 3-sigma limits.'
+                  ? 'Every final month is inside its 3-sigma limits.'
                   : `${signals.map((p) => `${formatMonth(p.label)} is ${p.signal} its limits (${formatPercent(p.rate)})`).join('; ')}.`
-              }`;
+              }${notFinal}`;
         return (
           <ChartFigure
             key={shop.id}
@@ -76,6 +81,11 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
                 <LegendItem colour={P_CHART_COLOURS.signal} mark="diamond">
                   Outside the limits
                 </LegendItem>
+                {provisional.length > 0 && (
+                  <LegendItem colour={P_CHART_COLOURS.rate} mark="ring">
+                    Not final yet
+                  </LegendItem>
+                )}
               </div>
             }
             table={
@@ -99,14 +109,20 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
                     formatPercent(p.rate),
                     formatPercent(p.lower),
                     formatPercent(p.upper),
-                    p.signal ? `${p.signal} the limits` : 'inside',
+                    p.provisional
+                      ? p.trials === 0
+                        ? 'not final'
+                        : `not final (${formatCount(p.open)} still in their window)`
+                      : p.signal
+                        ? `${p.signal} the limits`
+                        : 'inside',
                   ],
                 }))}
               />
             }
           >
             {center === null ? (
-              <p className="text-slate-600">Nothing to draw.</p>
+              <p className="text-slate-600">Nothing to draw until a month's figures are final.</p>
             ) : (
               <PChart
                 points={points}
@@ -120,6 +136,13 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
       })}
     </div>
   );
+}
+
+/** "September 2026 is" or "September, October and November 2026 are". */
+function provisionalText(labels: string[]) {
+  const names = labels.map(formatMonth);
+  if (names.length === 1) return `${names[0]} is`;
+  return `${names.slice(0, -1).join(', ')} and ${names.at(-1)} are`;
 }
 
 /** Monthly turnaround: per shop the customer p90 (network), or one shop's median and p90 of both. */
