@@ -17,7 +17,6 @@ import {
   benchSessions,
   checklistTicks,
   customers,
-  jobEvents,
   jobs,
   partLines,
   reels,
@@ -42,6 +41,7 @@ import { benchChargeCents, jobScope } from '../bench/shared';
 import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
+import { jobBenchSessions, jobTimeline } from './job-history';
 import { shopScope } from './scope';
 
 const DAY = 86_400_000;
@@ -459,34 +459,8 @@ export async function getJobDetail(principal: Principal, id: number): Promise<Jo
 
   const [events, sessions, parts, ticks, steps, standard, price, people, myTimer] =
     await Promise.all([
-      conn
-        .select({
-          id: jobEvents.id,
-          fromState: jobEvents.fromState,
-          toState: jobEvents.toState,
-          at: jobEvents.at,
-          note: jobEvents.note,
-          userName: users.name,
-        })
-        .from(jobEvents)
-        .leftJoin(users, eq(users.id, jobEvents.userId))
-        .where(eq(jobEvents.jobId, id))
-        .orderBy(asc(jobEvents.at), asc(jobEvents.id)),
-      conn
-        .select({
-          id: benchSessions.id,
-          technicianId: benchSessions.technicianId,
-          technicianName: users.name,
-          startedAt: benchSessions.startedAt,
-          endedAt: benchSessions.endedAt,
-          minutes: benchSessions.minutes,
-          note: benchSessions.note,
-          createdAt: benchSessions.createdAt,
-        })
-        .from(benchSessions)
-        .innerJoin(users, eq(users.id, benchSessions.technicianId))
-        .where(eq(benchSessions.jobId, id))
-        .orderBy(asc(benchSessions.createdAt), asc(benchSessions.id)),
+      jobTimeline(conn, id),
+      jobBenchSessions(conn, id),
       conn
         .select()
         .from(partLines)

@@ -1,13 +1,10 @@
 import { aliasedTable, and, asc, eq, isNotNull } from '@reelwright/db';
 import {
-  benchSessions,
   checklistTicks,
-  jobEvents,
   jobs,
   partLines,
   photos,
   reels,
-  serviceStandardSteps,
   serviceStandards,
   shops,
   users,
@@ -15,6 +12,8 @@ import {
 import { db } from '../../db';
 import { notFound } from '../../errors';
 import { presignView, storageConfigured } from '../../storage';
+import { applicableSteps } from '../bench';
+import { jobBenchSessions, jobTimeline } from '../job-history';
 
 export interface JobRecord {
   id: number;
@@ -116,31 +115,8 @@ export async function jobRecord(jobId: number): Promise<JobRecord> {
   const { job, reel } = row;
   const ticker = aliasedTable(users, 'ticker');
   const [events, sessions, parts, standard, steps, ticks, pictures] = await Promise.all([
-    conn
-      .select({
-        id: jobEvents.id,
-        fromState: jobEvents.fromState,
-        toState: jobEvents.toState,
-        at: jobEvents.at,
-        userName: users.name,
-        note: jobEvents.note,
-      })
-      .from(jobEvents)
-      .leftJoin(users, eq(users.id, jobEvents.userId))
-      .where(eq(jobEvents.jobId, jobId))
-      .orderBy(asc(jobEvents.at), asc(jobEvents.id)),
-    conn
-      .select({
-        id: benchSessions.id,
-        technicianName: users.name,
-        startedAt: benchSessions.startedAt,
-        minutes: benchSessions.minutes,
-        note: benchSessions.note,
-      })
-      .from(benchSessions)
-      .innerJoin(users, eq(users.id, benchSessions.technicianId))
-      .where(eq(benchSessions.jobId, jobId))
-      .orderBy(asc(benchSessions.createdAt), asc(benchSessions.id)),
+    jobTimeline(conn, jobId),
+    jobBenchSessions(conn, jobId),
     conn
       .select({
         id: partLines.id,
@@ -158,13 +134,7 @@ export async function jobRecord(jobId: number): Promise<JobRecord> {
           .select({ version: serviceStandards.version, title: serviceStandards.title })
           .from(serviceStandards)
           .where(eq(serviceStandards.id, job.serviceStandardId)),
-    job.serviceStandardId === null
-      ? Promise.resolve([])
-      : conn
-          .select()
-          .from(serviceStandardSteps)
-          .where(eq(serviceStandardSteps.standardId, job.serviceStandardId))
-          .orderBy(asc(serviceStandardSteps.position)),
+    applicableSteps(job.serviceStandardId, reel.kind, conn),
     conn
       .select({
         stepId: checklistTicks.stepId,
@@ -220,29 +190,40 @@ export async function jobRecord(jobId: number): Promise<JobRecord> {
       useProfile: reel.useProfile,
       water: reel.water,
     },
-    events: events.map((e) => ({ ...e, at: e.at.toISOString() })),
+    events: events.map((e) => ({
+      id: e.id,
+      fromState: e.fromState,
+      toState: e.toState,
+      at: e.at.toISOString(),
+      userName: e.userName,
+      note: e.note,
+    })),
     bench: {
       minutes,
-      sessions: sessions.map((s) => ({ ...s, startedAt: s.startedAt?.toISOString() ?? null })),
+      sessions: sessions.map((s) => ({
+        id: s.id,
+        technicianName: s.technicianName,
+        startedAt: s.startedAt?.toISOString() ?? null,
+        minutes: s.minutes,
+        note: s.note,
+      })),
     },
     checklist: {
       standard: standard[0] ?? null,
-      steps: steps
-        .filter((s) => !s.appliesTo || s.appliesTo.includes(reel.kind))
-        .map((s) => {
-          const tick = tickByStep.get(s.id);
-          return {
-            id: s.id,
-            group: s.group,
-            code: s.code,
-            title: s.title,
-            required: s.required,
-            ticked: Boolean(tick),
-            tickedAt: tick?.tickedAt.toISOString() ?? null,
-            tickedBy: tick?.userName ?? null,
-            note: tick?.note ?? null,
-          };
-        }),
+      steps: steps.map((s) => {
+        const tick = tickByStep.get(s.id);
+        return {
+          id: s.id,
+          group: s.group,
+          code: s.code,
+          title: s.title,
+          required: s.required,
+          ticked: Boolean(tick),
+          tickedAt: tick?.tickedAt.toISOString() ?? null,
+          tickedBy: tick?.userName ?? null,
+          note: tick?.note ?? null,
+        };
+      }),
     },
     parts,
     money: {
