@@ -1,13 +1,15 @@
 // `pnpm bench`: how fast the network comparison stays on a large network. Builds a synthetic
 // network (default 60 shops, 3 years, 1,000,000 jobs) in a temporary PGlite folder (or in
 // --data-dir, kept for later runs), and in the PostgreSQL database given by --pg-url (the `bench`
-// script passes BENCH_DATABASE_URL; an empty database is filled and left filled for reuse), then
-// times one quarter across all shops three ways: the API handler's query function, the single
-// bare SQL aggregate reading the same rows (the floor), and loading those rows into JS and
-// computing there with the metrics engine (the naive way). Medians of several runs, taken in turn
-// so each sees the same machine load; figures are printed, never asserted.
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+// script passes BENCH_DATABASE_URL; an empty database is filled and left filled for reuse, and a
+// kept one gets the migrations added since), then times one quarter across all shops three ways:
+// the API handler's query function, the single bare SQL aggregate reading the same rows through
+// the same indexes (the floor), and loading those rows into JS and computing there with the
+// metrics engine (the naive way). Medians of several runs, taken in turn so each sees the same
+// machine load, with the CPU time each used (this process, and the server's processes when it
+// runs on this machine), which a busy machine disturbs less; figures are printed, never asserted.
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { sql, type Db } from '@reelwright/db';
@@ -50,18 +52,69 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 };
 
-/** Median times of several functions, run in turn so that each sees the same machine load. */
-async function timeInTurn(runs: number, fns: (() => Promise<unknown>)[]) {
+interface Timing {
+  /** Median wall-clock milliseconds. */
+  ms: number;
+  /** Mean CPU milliseconds a run: this process (PGlite runs inside it) plus the local server's. */
+  cpu: number;
+}
+
+const processCpu = () => {
+  const { user, system } = process.cpuUsage();
+  return (user + system) / 1000;
+};
+
+/**
+ * CPU milliseconds used so far by a PostgreSQL server running on this machine: its postmaster and
+ * every child (the bench's backends among them), read from /proc. Null when the server is
+ * elsewhere. On a busy machine CPU time says more than wall-clock time about the work done.
+ */
+async function serverCpuMeter(db: Db): Promise<(() => number) | null> {
+  const { rows } = await db.execute<{ pid: number }>(sql`select pg_backend_pid() as pid`);
+  const stat = (pid: number | string) => {
+    try {
+      const text = readFileSync(`/proc/${pid}/stat`, 'utf8');
+      return text.slice(text.lastIndexOf(')') + 2).split(' ');
+    } catch {
+      return null;
+    }
+  };
+  const backend = stat(rows[0]!.pid);
+  if (!backend) return null;
+  const postmaster = Number(backend[1]);
+  const ticksPerMs = 100 / 1000; // USER_HZ is 100 on Linux
+  return () => {
+    let ticks = 0;
+    for (const pid of readdirSync('/proc')) {
+      if (!/^\d+$/.test(pid)) continue;
+      const f = stat(pid);
+      if (f && (Number(pid) === postmaster || Number(f[1]) === postmaster))
+        ticks += Number(f[11]) + Number(f[12]);
+    }
+    return ticks / ticksPerMs;
+  };
+}
+
+/** Times of several functions, run in turn so that each sees the same machine load. */
+async function timeInTurn(
+  runs: number,
+  fns: (() => Promise<unknown>)[],
+  serverCpu: (() => number) | null,
+): Promise<Timing[]> {
   for (const fn of fns) await fn(); // warm caches and plans
-  const out = fns.map(() => [] as number[]);
+  const wall = fns.map(() => [] as number[]);
+  const cpu = fns.map(() => 0);
+  const cpuNow = () => processCpu() + (serverCpu?.() ?? 0);
   for (let i = 0; i < runs; i++) {
     for (const [k, fn] of fns.entries()) {
+      const c = cpuNow();
       const t = performance.now();
       await fn();
-      out[k]!.push(performance.now() - t);
+      wall[k]!.push(performance.now() - t);
+      cpu[k]! += cpuNow() - c;
     }
   }
-  return out.map(median);
+  return wall.map((w, k) => ({ ms: median(w), cpu: cpu[k]! / runs }));
 }
 
 // Each shop's quarter, [from, to + 1 day) in its own zone, as the handler reads it.
@@ -89,7 +142,8 @@ async function floor(db: Db) {
       select count(*) as n from jobs j
       where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1) c
     cross join lateral (
-      select count(*) as n from comebacks cb join jobs j on j.id = cb.original_job_id
+      select count(*) as n from comebacks cb
+      join jobs j on j.id = cb.original_job_id and j.shop_id = s.id
       where cb.original_shop_id = s.id and cb.detected_at >= s.t0
         and cb.detected_at < s.t1 + ${WARRANTY_DAYS * 24} * interval '1 hour'
         and j.collected_at >= s.t0 and j.collected_at < s.t1) b
@@ -195,15 +249,28 @@ async function measure(label: string, handle: DbHandle) {
     scope: { kind: 'network' },
   };
   const runs = Number(args.runs);
+  const load = () =>
+    loadavg()
+      .map((l) => l.toFixed(2))
+      .join(', ');
+  console.log(`\n${label}: measuring; machine load (1, 5, 15 min) ${load()}`);
+  const meter = handle.driver === 'pg' ? await serverCpuMeter(db) : null;
   const comparison = () => networkComparison(owner, PERIOD, { db, asOf: NOW });
-  const [handler = 0, bare = 0] = await timeInTurn(runs, [comparison, () => floor(db)]);
+  const [handler, bare] = (await timeInTurn(runs, [comparison, () => floor(db)], meter)) as [
+    Timing,
+    Timing,
+  ];
   let loaded = 0;
-  const [slow = 0, handlerAgain = 0] = await timeInTurn(Number(args['naive-runs']), [
-    async () => {
-      loaded = (await naive(db)).rows;
-    },
-    comparison,
-  ]);
+  const [slow, handlerAgain] = (await timeInTurn(
+    Number(args['naive-runs']),
+    [
+      async () => {
+        loaded = (await naive(db)).rows;
+      },
+      comparison,
+    ],
+    meter,
+  )) as [Timing, Timing];
 
   // The handler and the naive way must agree, or the comparison means nothing.
   const fast = await networkComparison(owner, PERIOD, { db, asOf: NOW });
@@ -222,19 +289,25 @@ async function measure(label: string, handle: DbHandle) {
   }
   const { rows } = await db.execute<{ n: number | string }>(sql`select count(*) as n from jobs`);
   console.log(
-    `\n${label}: ${Number(rows[0]!.n).toLocaleString('en-US')} jobs, ${fast.shops.length} shops, quarter ${PERIOD.from} – ${PERIOD.to}`,
+    `${label}: ${Number(rows[0]!.n).toLocaleString('en-US')} jobs, ${fast.shops.length} shops, quarter ${PERIOD.from} – ${PERIOD.to}; load now ${load()}`,
   );
   console.log(
     `  rows the quarter reads:     ${loaded.toLocaleString('en-US')} (jobs ready, jobs collected with comebacks, audit samples)`,
   );
-  console.log(`  API handler query function: ${handler.toFixed(1)} ms (median of ${runs})`);
-  console.log(`  bare SQL aggregate (floor): ${bare.toFixed(1)} ms (median of ${runs})`);
+  const cpuNote =
+    handle.driver === 'pg' && !meter ? ' (server not on this machine: bench only)' : '';
+  const line = (name: string, t: Timing, n: number | string) =>
+    console.log(
+      `  ${name.padEnd(27)} ${t.ms.toFixed(1)} ms (median of ${n}); CPU ${t.cpu.toFixed(1)} ms a run${cpuNote}`,
+    );
+  line('API handler query function:', handler, runs);
+  line('bare SQL aggregate (floor):', bare, runs);
+  line('naive load + JS compute:', slow, args['naive-runs']!);
   console.log(
-    `  naive load + JS compute:    ${slow.toFixed(1)} ms (median of ${args['naive-runs']})`,
+    `  handler ÷ floor:            ${(handler.ms / bare.ms).toFixed(2)}×  (target ≤ 2×; CPU ${(handler.cpu / bare.cpu).toFixed(2)}×)`,
   );
-  console.log(`  handler ÷ floor:            ${(handler / bare).toFixed(2)}×  (target ≤ 2×)`);
   console.log(
-    `  naive ÷ handler:            ${(slow / handler).toFixed(1)}×  (target ≥ 20×; handler timed beside it: ${handlerAgain.toFixed(1)} ms)`,
+    `  naive ÷ handler:            ${(slow.ms / handler.ms).toFixed(1)}×  (target ≥ 20×; CPU ${(slow.cpu / handler.cpu).toFixed(1)}×; handler timed beside it: ${handlerAgain.ms.toFixed(1)} ms)`,
   );
   return { label, handler, bare, slow };
 }
@@ -251,6 +324,15 @@ async function isBenchNetwork(handle: DbHandle) {
     sql`select count(*) as n from users where email = 'bench-owner@bench.test'`,
   );
   return Number(rows[0]?.n ?? 0) === 1;
+}
+
+/** A network kept from an earlier run gets the migrations added since, so it measures today's schema. */
+async function catchUp(handle: DbHandle, label: string) {
+  const applied = await migrate(handle.db, handle.driver);
+  if (applied > 0) {
+    await handle.db.execute(sql`vacuum analyze`);
+    console.log(`${label}: applied ${applied} new migration(s) to the kept network`);
+  }
 }
 
 async function build(handle: DbHandle, label: string) {
@@ -286,6 +368,7 @@ async function main() {
       if (await isEmpty(handle)) await build(handle, 'PGlite');
       else if (!(await isBenchNetwork(handle)))
         throw new Error(`${folder} holds another database.`);
+      else await catchUp(handle, 'PGlite');
       results.push(await measure('PGlite', handle));
     } finally {
       await handle.close();
@@ -301,7 +384,7 @@ async function main() {
         throw new Error(
           'BENCH_DATABASE_URL must name an empty database (or one an earlier run filled).',
         );
-      }
+      } else await catchUp(handle, 'PostgreSQL');
       results.push(await measure('PostgreSQL', handle));
     } finally {
       await handle.close();
@@ -309,12 +392,19 @@ async function main() {
   } else {
     console.log('\n(Set BENCH_DATABASE_URL to an empty PostgreSQL database to measure there too.)');
   }
-  console.log('\nsummary (ms): engine | handler | floor | naive | handler÷floor | naive÷handler');
+  console.log(
+    '\nsummary: engine | handler | floor | naive (ms, medians) | handler÷floor | naive÷handler | the same ratios in CPU time',
+  );
   for (const r of results) {
     console.log(
-      `  ${r.label} | ${r.handler.toFixed(1)} | ${r.bare.toFixed(1)} | ${r.slow.toFixed(1)} | ${(r.handler / r.bare).toFixed(2)} | ${(r.slow / r.handler).toFixed(1)}`,
+      `  ${r.label} | ${r.handler.ms.toFixed(1)} | ${r.bare.ms.toFixed(1)} | ${r.slow.ms.toFixed(1)} | ${(r.handler.ms / r.bare.ms).toFixed(2)} | ${(r.slow.ms / r.handler.ms).toFixed(1)} | CPU ${(r.handler.cpu / r.bare.cpu).toFixed(2)} | ${(r.slow.cpu / r.handler.cpu).toFixed(1)}`,
     );
   }
+  console.log(
+    `  machine load (1, 5, 15 min): ${loadavg()
+      .map((l) => l.toFixed(2))
+      .join(', ')}`,
+  );
 }
 
 await main();
