@@ -13,6 +13,7 @@ const ITEMS: NavItem[] = [
   { href: '/', label: 'Home', permission: 'shops:read' },
   { href: '/bench', label: 'Bench', permission: 'jobs:read' },
   { href: '/network', label: 'Network', permission: 'network:read', multiShop: true },
+  { href: '/comebacks', label: 'Comebacks', permission: 'comebacks:read' },
   { href: '/audits', label: 'Audits', permission: 'audits:read' },
   {
     href: '/corrective-actions',

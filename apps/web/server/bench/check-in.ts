@@ -9,6 +9,7 @@ import {
   users,
 } from '@reelwright/db/schema';
 import type { CheckInInput } from '~/lib/validators/jobs';
+import { detectAtCheckIn } from '../comebacks/detect';
 import { db } from '../db';
 import { badRequest, forbidden, notFound } from '../errors';
 import type { Principal } from '../principal';
@@ -43,13 +44,14 @@ export async function assertBenchPerson(conn: Tx, shopId: number, userId: number
 /**
  * Checks a reel in: finds or adds the customer and the reel, opens the job under the latest
  * published service standard with the service's flat price as its labour, and records the first
- * event of its timeline. All or nothing.
+ * event of its timeline; a reel back inside the warranty window is flagged as a comeback and the
+ * original shop's lead e-mailed (`comebackId`, `emailsQueued`). All or nothing.
  */
 export async function checkIn(
   principal: Principal,
   input: CheckInInput,
   options: { now?: Date } = {},
-): Promise<{ id: number }> {
+): Promise<{ id: number; comebackId: number | null; emailsQueued: number }> {
   const now = options.now ?? new Date();
   const shopId = benchShopOf(principal);
   const conn = await db();
@@ -204,6 +206,11 @@ export async function checkIn(
       },
       at: now,
     });
-    return { id: job!.id };
+    const comeback = await detectAtCheckIn(tx, principal, job!, now);
+    return {
+      id: job!.id,
+      comebackId: comeback?.comebackId ?? null,
+      emailsQueued: comeback?.emailsQueued ?? 0,
+    };
   });
 }

@@ -2,6 +2,7 @@
 import { checkInInput, jobListQuery } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { checkIn } from '~/server/bench/check-in';
+import { deliverPending } from '~/server/mail/outbox';
 import { getJobDetail, listJobs } from '~/server/queries/bench';
 
 export const GET = route(
@@ -12,7 +13,9 @@ export const GET = route(
 export const POST = route(
   { permission: 'jobs:write', body: checkInInput },
   async ({ principal, body }) => {
-    const { id } = await checkIn(principal, body);
+    const { id, emailsQueued } = await checkIn(principal, body);
+    // A comeback's review e-mail goes after the commit, never awaited: mail must not hold up check-in.
+    if (emailsQueued > 0) void deliverPending();
     return Response.json(await getJobDetail(principal, id), {
       status: 201,
       headers: { location: `/api/jobs/${id}` },

@@ -1,0 +1,9 @@
+// GET /api/comebacks?shop=&status= – the review queues of the caller's shops: open ones oldest first, then reviewed ones
+import { comebackListQuery } from '~/lib/validators/comebacks';
+import { route } from '~/server/api';
+import { listComebacks } from '~/server/queries/comebacks';
+
+export const GET = route(
+  { permission: 'comebacks:read', query: comebackListQuery },
+  async ({ principal, query }) => listComebacks(principal, query),
+);

@@ -1,0 +1,215 @@
+import { z } from 'zod';
+import { localDate } from './audits';
+import { idParam } from './common';
+
+// Zod schemas shared by the comeback screens and the comeback and settings route handlers.
+
+export const COMEBACK_STATUSES = ['open', 'confirmed', 'dismissed'] as const;
+export type ComebackStatusValue = (typeof COMEBACK_STATUSES)[number];
+export const ATTRIBUTIONS = [
+  'workmanship',
+  'part_failure',
+  'customer_damage',
+  'unrelated',
+  'undetermined',
+] as const;
+export type AttributionValue = (typeof ATTRIBUTIONS)[number];
+export const DISPOSITIONS = ['redone_free', 'charged', 'refunded'] as const;
+export type DispositionValue = (typeof DISPOSITIONS)[number];
+export const DISMISS_REASONS = ['not_same_fault', 'outside_window', 'not_our_work'] as const;
+export type DismissReasonValue = (typeof DISMISS_REASONS)[number];
+
+export const ATTRIBUTION_LABELS: Record<AttributionValue, string> = {
+  workmanship: 'Workmanship',
+  part_failure: 'Part failure',
+  customer_damage: 'Customer damage',
+  unrelated: 'Unrelated',
+  undetermined: 'Undetermined',
+};
+export const DISPOSITION_LABELS: Record<DispositionValue, string> = {
+  redone_free: 'Redone at no charge',
+  charged: 'Charged',
+  refunded: 'Refunded',
+};
+export const DISMISS_REASON_LABELS: Record<DismissReasonValue, string> = {
+  not_same_fault: 'Not the same fault',
+  outside_window: 'Outside the warranty window',
+  not_our_work: 'Not our work',
+};
+export const COMEBACK_STATUS_LABELS: Record<ComebackStatusValue, string> = {
+  open: 'To review',
+  confirmed: 'Confirmed',
+  dismissed: 'Dismissed',
+};
+
+/**
+ * The stored dismissal text: the reason's words, then the note ("Not our work: opened elsewhere").
+ * The demo seed writes the same shape, so the reason is read back from the start of the text.
+ */
+export function dismissalText(reason: DismissReasonValue, note?: string | null) {
+  const words = DISMISS_REASON_LABELS[reason];
+  return note ? `${words}: ${note}` : `${words}.`;
+}
+
+export function parseDismissal(text: string | null): {
+  reason: DismissReasonValue | null;
+  note: string | null;
+} {
+  if (!text) return { reason: null, note: null };
+  for (const reason of DISMISS_REASONS) {
+    const words = DISMISS_REASON_LABELS[reason];
+    if (text.startsWith(words)) {
+      const rest = text
+        .slice(words.length)
+        .replace(/^[:.]\s*/, '')
+        .trim();
+      return { reason, note: rest || null };
+    }
+  }
+  return { reason: null, note: text };
+}
+
+const optionalText = (max: number, label: string) =>
+  z
+    .string({ error: `${label} must be text` })
+    .trim()
+    .max(max, `${label} must be at most ${max} characters`)
+    .transform((s) => (s ? s : null))
+    .nullable()
+    .optional();
+
+/** `GET /api/comebacks?shop=&status=`. */
+export const comebackListQuery = z.object({
+  shop: idParam.optional(),
+  status: z.enum(COMEBACK_STATUSES, { error: 'Status is open, confirmed or dismissed' }).optional(),
+});
+export type ComebackListQuery = z.infer<typeof comebackListQuery>;
+
+/** `POST /api/jobs/{id}/comeback-of`: link a return job to the earlier job by hand. */
+export const comebackLinkInput = z.object({
+  originalJobId: idParam,
+  symptom: optionalText(500, 'The symptom'),
+});
+export type ComebackLinkInput = z.infer<typeof comebackLinkInput>;
+
+export const correctiveActionFromComeback = z.object({
+  title: z
+    .string({ error: 'Give the action a title' })
+    .trim()
+    .min(3, 'Give the action a title')
+    .max(160, 'At most 160 characters'),
+  description: optionalText(2000, 'The description'),
+  ownerId: idParam,
+  dueOn: localDate,
+});
+
+/**
+ * `PATCH /api/comebacks/{id}`: any part of the review. A confirmation needs an attribution, a
+ * dismissal a reason; the rules that depend on the stored comeback are checked by the server.
+ */
+export const comebackPatch = z
+  .object({
+    status: z.enum(COMEBACK_STATUSES, { error: 'Choose confirm or dismiss' }).optional(),
+    dismissReason: z
+      .enum(DISMISS_REASONS, {
+        error: 'Choose why: not the same fault, outside the window, or not our work',
+      })
+      .nullable()
+      .optional(),
+    dismissNote: optionalText(500, 'The note'),
+    attribution: z.enum(ATTRIBUTIONS, { error: 'Choose an attribution' }).nullable().optional(),
+    rootCauseId: idParam.nullable().optional(),
+    rootCauseNote: optionalText(1000, 'The root cause note'),
+    checklistStepId: idParam.nullable().optional(),
+    disposition: z.enum(DISPOSITIONS, { error: 'Choose a disposition' }).nullable().optional(),
+    symptom: optionalText(500, 'The symptom'),
+    assigneeId: idParam.nullable().optional(),
+    correctiveAction: correctiveActionFromComeback.optional(),
+  })
+  .strict()
+  .superRefine((v, ctx) => {
+    if (v.status === 'dismissed' && !v.dismissReason)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['dismissReason'],
+        message: 'Say why it is dismissed: not the same fault, outside the window, or not our work',
+      });
+    if (v.status === 'confirmed' && v.attribution === null)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['attribution'],
+        message: 'A confirmed comeback needs an attribution',
+      });
+    if (Object.keys(v).length === 0)
+      ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
+  });
+export type ComebackPatch = z.infer<typeof comebackPatch>;
+export type ComebackPatchInput = z.input<typeof comebackPatch>;
+
+export const rootCauseInput = z.object({
+  /** Absent for a new root cause. */
+  id: idParam.optional(),
+  label: z
+    .string({ error: 'Name the root cause' })
+    .trim()
+    .min(2, 'Name the root cause')
+    .max(80, 'At most 80 characters'),
+  active: z.boolean({ error: 'Active is true or false' }).default(true),
+});
+
+/** `PUT /api/settings/comebacks`: the owner's comeback settings and root cause list, in order. */
+export const comebackSettingsInput = z
+  .object({
+    warrantyDays: z
+      .number({ error: 'Enter a whole number of days' })
+      .int('Enter a whole number of days')
+      .min(1, 'At least 1 day')
+      .max(365, 'At most 365 days'),
+    reviewDeadlineDays: z
+      .number({ error: 'Enter a whole number of days' })
+      .int('Enter a whole number of days')
+      .min(1, 'At least 1 day')
+      .max(60, 'At most 60 days'),
+    correctiveActionDueDays: z
+      .number({ error: 'Enter a whole number of days' })
+      .int('Enter a whole number of days')
+      .min(1, 'At least 1 day')
+      .max(180, 'At most 180 days'),
+    countedAttributions: z
+      .array(z.enum(ATTRIBUTIONS, { error: 'Unknown attribution' }), {
+        error: 'Choose the attributions that count',
+      })
+      .min(1, 'At least one attribution must count')
+      .refine((a) => new Set(a).size === a.length, 'Each attribution once'),
+    rootCauses: z
+      .array(rootCauseInput, { error: 'List the root causes' })
+      .min(1, 'Keep at least one root cause')
+      .max(40, 'At most 40 root causes'),
+  })
+  .superRefine((v, ctx) => {
+    const seen = new Map<string, number>();
+    v.rootCauses.forEach((c, i) => {
+      const key = c.label.toLowerCase();
+      if (seen.has(key))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['rootCauses', i, 'label'],
+          message: 'Another root cause has this name',
+        });
+      else seen.set(key, i);
+    });
+    const ids = v.rootCauses.flatMap((c) => (c.id === undefined ? [] : [c.id]));
+    if (new Set(ids).size !== ids.length)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['rootCauses'],
+        message: 'A root cause is listed twice',
+      });
+    if (!v.rootCauses.some((c) => c.active))
+      ctx.addIssue({
+        code: 'custom',
+        path: ['rootCauses'],
+        message: 'Keep at least one root cause active',
+      });
+  });
+export type ComebackSettingsInput = z.infer<typeof comebackSettingsInput>;
