@@ -7,7 +7,7 @@ import { deliverPending } from '../mail/outbox';
 import { buildMonthCloseNetwork } from '../month-close/test-network';
 import { dueReminders } from './due';
 import { getBatch, runBatch, startReminderBatch } from './send';
-import { unsubscribe } from './unsubscribe';
+import { unsubscribe, unsubscribeStatus } from './unsubscribe';
 
 const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
 vi.mock('~/server/db', () => ({
@@ -181,7 +181,7 @@ describe('service reminders', () => {
     expect(after.counts).toMatchObject({ to_send: 0, sent: 3 });
   });
 
-  it('customer – the unsubscribe link in the e-mail records the opt-out, no sign-in', async () => {
+  it('customer – the unsubscribe link asks first, then records the opt-out, no sign-in', async () => {
     const conn = state.handle!.db;
     const [mail] = await conn.select().from(emails).where(eq(emails.toAddress, 'ada@example.test'));
     expect(mail!.subject).toBe(
@@ -192,7 +192,15 @@ describe('service reminders', () => {
     expect(link).not.toBeNull();
     expect(mail!.htmlBody).toContain(`href="${link![0]}"`);
 
+    // Opening the link only reads: the customer is still subscribed until they confirm.
+    expect(await unsubscribeStatus(link![1]!)).toEqual({
+      shopName: 'Dune Test Shop',
+      subscribed: true,
+    });
+    const [before] = await conn.select().from(customers).where(eq(customers.id, customer.Ada!));
+    expect(before!.reminderConsent).toBe(true);
     expect(await unsubscribe(link![1]!)).toEqual({ shopName: 'Dune Test Shop', changed: true });
+    expect(await unsubscribeStatus(link![1]!)).toMatchObject({ subscribed: false });
     const [ada] = await conn.select().from(customers).where(eq(customers.id, customer.Ada!));
     expect(ada!.reminderConsent).toBe(false);
     const [token] = await conn
@@ -202,6 +210,7 @@ describe('service reminders', () => {
     expect(token!.usedAt).not.toBeNull();
     expect(await unsubscribe(link![1]!)).toEqual({ shopName: 'Dune Test Shop', changed: false });
     expect(await unsubscribe('not-a-real-token-at-all')).toBeNull();
+    expect(await unsubscribeStatus('not-a-real-token-at-all')).toBeNull();
 
     const eight = await dueReminders(net.leadDune, net.shops.dune.id, 8, { now: NOW });
     expect(eight.reels.find((r) => r.reelId === reel['Heavy-april'])?.reminder).toBe('no_consent');

@@ -8,15 +8,36 @@ export interface UnsubscribeResult {
   changed: boolean;
 }
 
+const TOKEN = /^[A-Za-z0-9_-]{16,128}$/;
+
+/**
+ * What the unsubscribe page shows before anything changes: the shop and whether the customer
+ * still gets reminders. Reading changes nothing, so a mail scanner that follows the link cannot
+ * unsubscribe anyone. Null for a token that does not exist.
+ */
+export async function unsubscribeStatus(
+  token: string,
+): Promise<{ shopName: string; subscribed: boolean } | null> {
+  if (!TOKEN.test(token)) return null;
+  const conn = await db();
+  const [row] = await conn
+    .select({ shopName: shops.name, subscribed: customers.reminderConsent })
+    .from(unsubscribeTokens)
+    .innerJoin(customers, eq(customers.id, unsubscribeTokens.customerId))
+    .innerJoin(shops, eq(shops.id, customers.shopId))
+    .where(eq(unsubscribeTokens.token, token));
+  return row ?? null;
+}
+
 /**
  * Records a customer's opt-out from service reminders from the token in their e-mail; no sign-in.
- * Visiting the link again changes nothing. Null for a token that does not exist.
+ * Confirming again changes nothing. Null for a token that does not exist.
  */
 export async function unsubscribe(
   token: string,
   now = new Date(),
 ): Promise<UnsubscribeResult | null> {
-  if (!/^[A-Za-z0-9_-]{16,128}$/.test(token)) return null;
+  if (!TOKEN.test(token)) return null;
   const conn = await db();
   return conn.transaction(async (tx) => {
     const [row] = await tx
