@@ -99,7 +99,10 @@ export const correctiveActionFromComeback = z.object({
     .min(3, 'Give the action a title')
     .max(160, 'At most 160 characters'),
   description: optionalText(2000, 'The description'),
-  ownerId: idParam,
+  ownerId: z.coerce
+    .number({ error: 'Choose who owns the action' })
+    .int('Choose who owns the action')
+    .positive('Choose who owns the action'),
   dueOn: localDate,
 });
 

@@ -39,7 +39,7 @@ vi.mock('~/server/session', () => ({
   requirePagePrincipal: async () => state.principal,
 }));
 vi.mock('~/env', async (importOriginal) => {
-  const original = await importOriginal<typeof import('~/env')>();
+  const original = await importOriginal<{ env: Record<string, unknown> }>();
   return { env: { ...original.env, APP_BASE_URL: 'https://reelwright.test' } };
 });
 

@@ -27,6 +27,16 @@ export default async function SettingsPage() {
           <p className="text-slate-600">
             The items auditors score sampled jobs against, with weights and critical items.
           </p>
+          <Link
+            href="/settings/comebacks"
+            className="mt-4 inline-block font-medium text-sea-700 underline underline-offset-2 hover:text-sea-900"
+          >
+            Comebacks
+          </Link>
+          <p className="text-slate-600">
+            The warranty window, the review deadline, which attributions count against a shop, and
+            the root cause list.
+          </p>
         </Panel>
         <Panel
           title="Shops"

@@ -132,6 +132,17 @@ function ActionCard({ action }: { action: CorrectiveActionRow }) {
                 </Link>
               </>
             )}
+            {action.comebackId && (
+              <>
+                {' · '}
+                <Link
+                  href={`/comebacks/${action.comebackId}`}
+                  className="text-sea-700 underline underline-offset-2"
+                >
+                  Review of comeback #{action.comebackId}
+                </Link>
+              </>
+            )}
           </p>
         </div>
         <div className="flex flex-wrap items-center gap-2">

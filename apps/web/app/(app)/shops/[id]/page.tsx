@@ -6,6 +6,7 @@ import { shopMetricsQuery, shopTrendsQuery } from '~/lib/queries/network';
 import { idParam } from '~/lib/validators/common';
 import { TREND_METRICS } from '~/lib/validators/network';
 import { ApiError } from '~/server/errors';
+import { comebackBreakdown } from '~/server/queries/comebacks';
 import {
   networkSettingsUsed,
   shopMetrics,
@@ -20,6 +21,7 @@ import {
   todayIn,
   trendWindow,
 } from '../../network/_components/periods';
+import { ComebackBreakdownPanel } from './_components/comeback-breakdown';
 import { ShopView } from './_components/shop-view';
 
 export const metadata: Metadata = { title: 'Shop' };
@@ -50,6 +52,7 @@ export default async function ShopPage(props: {
       );
     }
     const shop = metrics.figures.shop;
+    const breakdown = await comebackBreakdown(principal, id.data, period, asOf);
     return (
       <>
         <PageHeader
@@ -65,6 +68,7 @@ export default async function ShopPage(props: {
             invalid={view.invalid}
           />
         </HydrationBoundary>
+        <ComebackBreakdownPanel shopId={id.data} data={breakdown} />
       </>
     );
   } catch (error) {

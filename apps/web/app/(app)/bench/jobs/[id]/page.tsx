@@ -3,10 +3,12 @@ import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { NotAllowed } from '~/components/ui';
 import { can } from '~/lib/permissions';
+import { comebackKeys } from '~/lib/queries/comebacks';
 import { asJson, jobKeys } from '~/lib/queries/jobs';
 import { idParam } from '~/lib/validators/common';
 import { ApiError } from '~/server/errors';
 import { getJobDetail } from '~/server/queries/bench';
+import { jobComeback } from '~/server/queries/comebacks';
 import { requirePagePrincipal } from '~/server/session';
 import { JobView } from './_components/job-view';
 
@@ -34,6 +36,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   }
   const queryClient = new QueryClient();
   queryClient.setQueryData(jobKeys.detail(job.id), asJson(job));
+  queryClient.setQueryData(comebackKeys.job(job.id), await jobComeback(principal, job.id));
   return (
     <HydrationBoundary state={dehydrate(queryClient)}>
       <JobView id={job.id} canWrite={can(principal.role, 'jobs:write')} />

@@ -10,6 +10,7 @@ import { jobDetailQuery, sendJson, type JobDetailJson } from '~/lib/queries/jobs
 import { formatCivilDate, moveLabel, USE_LABELS, WATER_LABELS } from '../../../_components/format';
 import { BenchTimePanel } from './bench-time-panel';
 import { ChecklistPanel } from './checklist-panel';
+import { ComebackPanel } from './comeback-panel';
 import { ErrorNote } from './error-note';
 import { MoneyPanel } from './money-panel';
 import { NotesPanel } from './notes-panel';
@@ -30,6 +31,7 @@ export function JobView({ id, canWrite }: { id: number; canWrite: boolean }) {
   return (
     <div className="space-y-6">
       <JobHeader job={job} canWrite={canWrite} />
+      <ComebackPanel jobId={job.id} timeZone={job.shop.timeZone} />
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1.6fr)_minmax(0,1fr)]">
         <div className="space-y-6">
           <ChecklistPanel job={job} canWrite={writable} />
@@ -97,9 +99,9 @@ function JobHeader({ job, canWrite }: { job: JobDetailJson; canWrite: boolean })
           {job.comebackOfJobId !== null && (
             <p className="mt-1 text-brass-800">
               Came back after{' '}
-              <Link href={`/bench/jobs/${job.comebackOfJobId}`} className="underline">
+              <a href="#comeback-heading" className="underline">
                 job #{job.comebackOfJobId}
-              </Link>
+              </a>
             </p>
           )}
         </div>
