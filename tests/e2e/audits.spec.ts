@@ -188,6 +188,13 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
 
   // Scoring: the auditor works through the sample one job at a time.
   const auditor = await as(browser, 'auditor');
+  // The auditor's home lists the round assigned to them.
+  await auditor.page.goto('/');
+  await expect(
+    auditor.page
+      .getByRole('region', { name: 'Your audit rounds' })
+      .getByRole('link', { name: `Round #${roundId}` }),
+  ).toBeVisible();
   await auditor.page.goto('/audits');
   await expect(
     auditor.page.getByRole('heading', { level: 1, name: 'Your audit rounds' }),

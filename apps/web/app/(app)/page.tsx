@@ -4,11 +4,14 @@ import { Panel, PageHeader, Stat } from '~/components/ui';
 import { OpenJobsTable } from '~/components/open-jobs-table';
 import { daysBetween, formatCount } from '~/lib/format';
 import { JOB_STATE_LABELS } from '~/lib/labels';
+import { roundsQuery } from '~/lib/queries/audits';
 import { shopsQuery } from '~/lib/queries/shops';
+import { listRounds } from '~/server/queries/audits';
 import { oldestOpenJobs, jobCounts } from '~/server/queries/jobs';
 import { getShop, listShops } from '~/server/queries/shops';
 import type { Principal } from '~/server/principal';
 import { requirePagePrincipal } from '~/server/session';
+import { RoundsTable } from './audits/_components/rounds-table';
 import { ShopsTable } from './_components/shops-table';
 
 export const metadata: Metadata = { title: 'Home' };
@@ -23,21 +26,24 @@ export default async function HomePage() {
 
 async function NetworkHome({ principal }: { principal: Principal }) {
   const queryClient = new QueryClient();
-  const shops = await listShops(principal);
+  const auditor = principal.role === 'auditor';
+  const [shops, rounds] = await Promise.all([
+    listShops(principal),
+    auditor ? listRounds(principal) : Promise.resolve(null),
+  ]);
   queryClient.setQueryData(shopsQuery().queryKey, { shops });
+  if (rounds) queryClient.setQueryData(roundsQuery().queryKey, { rounds });
   const sum = (pick: (s: (typeof shops)[number]) => number) =>
     shops.reduce((t, s) => t + pick(s), 0);
   const regionName = principal.scope.kind === 'region' ? shops[0]?.region.name : undefined;
-  const title =
-    principal.role === 'auditor'
-      ? 'Shops to audit'
-      : regionName
-        ? `${regionName} today`
-        : 'The network today';
-  const lead =
-    principal.role === 'auditor'
-      ? 'Every shop in the network and the work passing through it. You score the jobs that an audit round assigns to you.'
-      : `${shops.length} shops in your view. Counts are live; "this week" runs from Monday in each shop's own time zone.`;
+  const title = auditor
+    ? 'Shops to audit'
+    : regionName
+      ? `${regionName} today`
+      : 'The network today';
+  const lead = auditor
+    ? 'Every shop in the network and the work passing through it. You score the jobs that an audit round assigns to you.'
+    : `${shops.length} shops in your view. Counts are live; "this week" runs from Monday in each shop's own time zone.`;
   return (
     <>
       <PageHeader title={title} lead={lead} />
@@ -51,11 +57,21 @@ async function NetworkHome({ principal }: { principal: Principal }) {
         <Stat label="Waiting on parts" value={formatCount(sum((s) => s.waitingOnParts))} />
         <Stat label="Ready this week" value={formatCount(sum((s) => s.readyThisWeek))} />
       </dl>
-      <Panel title="Shops" description="Open work per shop. Select a shop for its page.">
-        <HydrationBoundary state={dehydrate(queryClient)}>
-          <ShopsTable caption="Shops in your view with their open work" />
-        </HydrationBoundary>
-      </Panel>
+      <HydrationBoundary state={dehydrate(queryClient)}>
+        <div className="space-y-8">
+          {auditor && (
+            <Panel
+              title="Your audit rounds"
+              description="Rounds assigned to you, newest period first. Open one to score its sampled jobs."
+            >
+              <RoundsTable auditor />
+            </Panel>
+          )}
+          <Panel title="Shops" description="Open work per shop. Select a shop for its page.">
+            <ShopsTable caption="Shops in your view with their open work" />
+          </Panel>
+        </div>
+      </HydrationBoundary>
     </>
   );
 }
