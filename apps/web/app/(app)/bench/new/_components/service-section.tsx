@@ -65,6 +65,7 @@ export function ServiceSection({
               id={c.id}
               value={form.technicianId}
               onChange={(e) => form.setTechnicianId(e.target.value)}
+              aria-invalid={c.invalid}
               aria-describedby={c.describedBy}
               className={inputClass}
             >

@@ -256,7 +256,10 @@ export function useCheckIn({ me, suggestion }: CheckInProps) {
     condition: bind('condition', condition, setCondition),
     promisedOn: bind('promisedOn', promisedOn, setPromisedOn),
     technicianId,
-    setTechnicianId,
+    setTechnicianId: (value: string) => {
+      setTechnicianId(value);
+      touch('technicianId');
+    },
   };
 }
 
