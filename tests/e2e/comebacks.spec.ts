@@ -159,6 +159,8 @@ test.describe('comebacks', () => {
       ((await reviewLink.textContent()) ?? '').match(/#(\d+)/)?.[1] ?? Number.NaN,
     );
     expect(comebackId).toBeGreaterThan(0);
+    await expectAccessible(techPage);
+    await shoot(techPage, 'comebacks-job-flag');
     await tech.close();
 
     // The original shop's lead was e-mailed an absolute link to the review.
@@ -338,6 +340,8 @@ test.describe('comebacks', () => {
       expect(['Marram Point', 'Saltwick Harbor', 'Skerry Wharf', 'Ternhollow Lake']).toContain(n);
     const late = page.getByText(/^! Past the review deadline/);
     if ((await late.count()) > 0) await expect(late.first()).toBeVisible();
+    await expectAccessible(page);
+    await shoot(page, 'comebacks-queue-region');
     await page.getByLabel('Shop').selectOption({ label: 'Skerry Wharf' });
     await expect(page).toHaveURL(/shop=\d+/);
     await expect(page.getByRole('heading', { level: 2, name: 'Marram Point' })).toHaveCount(0);

@@ -213,7 +213,7 @@ function QueueRow({ c, asOf }: { c: ComebackRow; asOf: string }) {
       <th scope="row" className="py-3 pr-3 pl-5 font-medium">
         <Link
           href={`/comebacks/${c.id}`}
-          className="text-sea-700 underline underline-offset-2 hover:text-sea-900"
+          className="whitespace-nowrap text-sea-700 underline underline-offset-2 hover:text-sea-900"
         >
           Comeback #{c.id}
         </Link>

@@ -25,6 +25,20 @@ const ATTRIBUTION_HINTS: Record<AttributionValue, string> = {
   undetermined: 'The cause cannot be told',
 };
 
+const FIELD_NAMES: Record<string, string> = {
+  dismissReason: 'Why it is dismissed',
+  dismissNote: 'Note',
+  attribution: 'Attribution',
+  rootCauseId: 'Root cause',
+  rootCauseNote: 'What was found',
+  checklistStepId: 'Checklist step',
+  disposition: 'Disposition',
+  correctiveAction: 'Corrective action',
+  'correctiveAction.title': 'Corrective action title',
+  'correctiveAction.ownerId': 'Corrective action owner',
+  'correctiveAction.dueOn': 'Corrective action due date',
+};
+
 const input =
   'mt-1 block min-h-11 w-full rounded-md border border-slate-400 bg-white px-3 aria-invalid:border-brick-600';
 
@@ -88,6 +102,13 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
 
   const server = fieldErrors(save.error);
   const errors = { ...server, ...local };
+  /** A field's message goes as soon as the field is changed. */
+  const fix = (...keys: string[]) => {
+    setSaved(false);
+    if (keys.some((k) => local[k]))
+      setLocal((l) => Object.fromEntries(Object.entries(l).filter(([k]) => !keys.includes(k))));
+    if (keys.some((k) => server[k])) save.reset();
+  };
   const err = (k: string) => errors[k];
   const invalid = (k: string) => (err(k) ? true : undefined);
   const describedBy = (k: string, hint?: string) =>
@@ -172,7 +193,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
             <p className="font-semibold text-brick-800">The review was not saved:</p>
             <ul className="mt-1 list-disc pl-5 text-brick-800">
               {summary.map(([k, m]) => (
-                <li key={k}>{m}</li>
+                <li key={k}>
+                  {FIELD_NAMES[k] ? `${FIELD_NAMES[k]}: ` : ''}
+                  {m}
+                </li>
               ))}
             </ul>
           </div>
@@ -189,7 +213,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
             <Choice
               name={f('decision')}
               checked={decision === 'confirmed'}
-              onChange={() => setDecision('confirmed')}
+              onChange={() => {
+                setDecision('confirmed');
+                fix('status', 'dismissReason');
+              }}
             >
               <span className="block font-medium">Confirm the comeback</span>
               <span className="block text-sm text-slate-700">
@@ -199,7 +226,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
             <Choice
               name={f('decision')}
               checked={decision === 'dismissed'}
-              onChange={() => setDecision('dismissed')}
+              onChange={() => {
+                setDecision('dismissed');
+                fix('status', 'attribution', 'correctiveAction');
+              }}
             >
               <span className="block font-medium">Dismiss it</span>
               <span className="block text-sm text-slate-700">It is not a comeback of our work</span>
@@ -220,7 +250,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                     key={r}
                     name={f('reason')}
                     checked={reason === r}
-                    onChange={() => setReason(r)}
+                    onChange={() => {
+                      setReason(r);
+                      fix('dismissReason');
+                    }}
                   >
                     {DISMISS_REASON_LABELS[r]}
                   </Choice>
@@ -236,7 +269,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                 id={f('note')}
                 rows={2}
                 value={note}
-                onChange={(e) => setNote(e.target.value)}
+                onChange={(e) => {
+                  setNote(e.target.value);
+                  fix('dismissNote');
+                }}
                 aria-invalid={invalid('dismissNote')}
                 aria-describedby={describedBy('dismissNote')}
                 className={`${input} py-2`}
@@ -256,7 +292,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                     key={a}
                     name={f('attribution')}
                     checked={attribution === a}
-                    onChange={() => setAttribution(a)}
+                    onChange={() => {
+                      setAttribution(a);
+                      fix('attribution');
+                    }}
                   >
                     <span className="block font-medium">
                       {ATTRIBUTION_LABELS[a]}
@@ -281,7 +320,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                 <select
                   id={f('cause')}
                   value={rootCauseId}
-                  onChange={(e) => setRootCauseId(e.target.value)}
+                  onChange={(e) => {
+                    setRootCauseId(e.target.value);
+                    fix('rootCauseId');
+                  }}
                   aria-invalid={invalid('rootCauseId')}
                   aria-describedby={describedBy('rootCauseId')}
                   className={input}
@@ -303,7 +345,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                 <select
                   id={f('step')}
                   value={stepId}
-                  onChange={(e) => setStepId(e.target.value)}
+                  onChange={(e) => {
+                    setStepId(e.target.value);
+                    fix('checklistStepId');
+                  }}
                   aria-invalid={invalid('checklistStepId')}
                   aria-describedby={describedBy('checklistStepId')}
                   className={input}
@@ -327,7 +372,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                 id={f('cause-note')}
                 rows={2}
                 value={rootCauseNote}
-                onChange={(e) => setRootCauseNote(e.target.value)}
+                onChange={(e) => {
+                  setRootCauseNote(e.target.value);
+                  fix('rootCauseNote');
+                }}
                 aria-invalid={invalid('rootCauseNote')}
                 aria-describedby={describedBy('rootCauseNote')}
                 className={`${input} py-2`}
@@ -343,7 +391,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                     key={d}
                     name={f('disposition')}
                     checked={disposition === d}
-                    onChange={() => setDisposition(d)}
+                    onChange={() => {
+                      setDisposition(d);
+                      fix('disposition');
+                    }}
                   >
                     {DISPOSITION_LABELS[d]}
                   </Choice>
@@ -358,7 +409,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                   <input
                     type="checkbox"
                     checked={openAction}
-                    onChange={(e) => setOpenAction(e.target.checked)}
+                    onChange={(e) => {
+                      setOpenAction(e.target.checked);
+                      fix('correctiveAction');
+                    }}
                     className="size-5 accent-sea-700"
                   />
                   Open a corrective action
@@ -372,7 +426,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                       <input
                         id={f('action-title')}
                         value={actionTitle}
-                        onChange={(e) => setActionTitle(e.target.value)}
+                        onChange={(e) => {
+                          setActionTitle(e.target.value);
+                          fix('correctiveAction.title');
+                        }}
                         aria-invalid={invalid('correctiveAction.title')}
                         aria-describedby={describedBy('correctiveAction.title')}
                         className={input}
@@ -389,7 +446,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                       <select
                         id={f('action-owner')}
                         value={actionOwner}
-                        onChange={(e) => setActionOwner(e.target.value)}
+                        onChange={(e) => {
+                          setActionOwner(e.target.value);
+                          fix('correctiveAction.ownerId');
+                        }}
                         aria-invalid={invalid('correctiveAction.ownerId')}
                         aria-describedby={describedBy('correctiveAction.ownerId')}
                         className={input}
@@ -414,7 +474,10 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
                         id={f('action-due')}
                         type="date"
                         value={actionDue}
-                        onChange={(e) => setActionDue(e.target.value)}
+                        onChange={(e) => {
+                          setActionDue(e.target.value);
+                          fix('correctiveAction.dueOn');
+                        }}
                         aria-invalid={invalid('correctiveAction.dueOn')}
                         aria-describedby={describedBy(
                           'correctiveAction.dueOn',

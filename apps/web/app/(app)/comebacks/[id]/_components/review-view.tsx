@@ -61,11 +61,15 @@ export function ReviewView({ id }: { id: number }) {
           </Fact>
           <Fact label={c.status === 'open' ? 'Review due' : 'Reviewed'}>
             {c.status === 'open'
-              ? `${onDate(c.dueAt, tz)} (open ${days(c.ageDays)})`
+              ? `${onDate(c.dueAt, tz)} (${c.ageDays === 0 ? 'opened today' : `open ${days(c.ageDays)}`})`
               : `${onDate(c.reviewedAt, tz)}${c.reviewerName ? ` by ${c.reviewerName}` : ''}`}
           </Fact>
-          <Fact label="Review by">
-            {c.assignee ? c.assignee.name : `${c.originalJob.shopName}’s lead`}
+          <Fact label={c.status === 'open' ? 'Review by' : 'Assigned to'}>
+            {c.assignee
+              ? c.assignee.name
+              : c.status === 'open'
+                ? `${c.originalJob.shopName}’s lead`
+                : 'The shop lead'}
           </Fact>
           <Fact label="What the customer reports">{c.symptom ?? 'Not recorded'}</Fact>
         </dl>
@@ -155,7 +159,11 @@ function JobCard(props: { title: string; facts: JobFacts; steps?: ComebackDetail
         <Fact label="Bench time">{f.benchMinutes ? minutes(f.benchMinutes) : 'None logged'}</Fact>
         <Fact label="Checked in">{atTime(f.checkedInAt, tz)}</Fact>
         <Fact label={f.collectedAt ? 'Collected' : JOB_STATE_LABELS.ready}>
-          {f.collectedAt ? atTime(f.collectedAt, tz) : atTime(f.readyAt, tz)}
+          {f.collectedAt
+            ? atTime(f.collectedAt, tz)
+            : f.readyAt
+              ? atTime(f.readyAt, tz)
+              : 'Not yet'}
         </Fact>
         <div className="col-span-2">
           <dt className="text-sm font-medium text-slate-600">What the customer said</dt>
@@ -229,6 +237,12 @@ function RedoCost({ c }: { c: ComebackDetail }) {
           </tr>
         </tbody>
       </table>
+      {r.totalCents === 0 && (
+        <p className="mt-3 text-sm text-slate-700">
+          No bench time or parts are logged on the return job yet. Save the review again once the
+          redo is done to store its cost.
+        </p>
+      )}
       <p className="mt-3 text-sm text-slate-700">
         {c.redoCostCents === null
           ? 'Stored with the review when it is confirmed.'
@@ -294,6 +308,34 @@ const ACTION_WORDS: Record<string, string> = {
   'comeback.corrective_action': 'Corrective action opened',
 };
 
+/** What a logged change set, in words: attribution, dismissal, root cause, assignee. */
+function historyDetail(after: unknown, c: ComebackDetail): string | null {
+  if (!after || typeof after !== 'object') return null;
+  const a = after as Record<string, unknown>;
+  const parts: string[] = [];
+  if (typeof a.attribution === 'string')
+    parts.push(
+      ATTRIBUTION_LABELS[a.attribution as keyof typeof ATTRIBUTION_LABELS] ?? a.attribution,
+    );
+  if (typeof a.dismissReason === 'string') parts.push(a.dismissReason);
+  if (typeof a.rootCauseId === 'number') {
+    const cause = c.rootCauses.find((r) => r.id === a.rootCauseId);
+    if (cause) parts.push(cause.label);
+  }
+  if (typeof a.disposition === 'string')
+    parts.push(
+      DISPOSITION_LABELS[a.disposition as keyof typeof DISPOSITION_LABELS] ?? a.disposition,
+    );
+  if ('assigneeId' in a)
+    parts.push(
+      a.assigneeId === null
+        ? 'Back with the shop lead'
+        : `To ${c.reviewers.find((p) => p.id === a.assigneeId)?.name ?? 'another reviewer'}`,
+    );
+  if (typeof a.correctiveActionId === 'number') parts.push(`#${a.correctiveActionId}`);
+  return parts.length ? parts.join(' · ') : null;
+}
+
 function History({ c }: { c: ComebackDetail }) {
   const tz = c.originalJob.timeZone;
   return (
@@ -302,6 +344,9 @@ function History({ c }: { c: ComebackDetail }) {
         {c.history.map((h) => (
           <li key={h.id} className="text-slate-800">
             <span className="font-medium">{ACTION_WORDS[h.action] ?? h.action}</span>
+            {historyDetail(h.after, c) && (
+              <span className="block text-slate-700">{historyDetail(h.after, c)}</span>
+            )}
             <span className="block text-sm text-slate-600">
               {atTime(h.at, tz)}
               {h.userName ? ` · ${h.userName}` : ''}

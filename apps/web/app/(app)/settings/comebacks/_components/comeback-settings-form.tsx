@@ -68,6 +68,26 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
       server[e.field.replace(/^body\./, '')] ??= e.message;
   const errors = { ...server, ...local };
   const err = (k: string) => errors[k];
+  /** A field's message goes as soon as the field is changed. */
+  const fix = (key: string) => {
+    setSaved(false);
+    if (local[key])
+      setLocal((l) => Object.fromEntries(Object.entries(l).filter(([k]) => k !== key)));
+    if (server[key]) save.reset();
+  };
+  const nameOf = (key: string) => {
+    const cause = /^rootCauses\.(\d+)/.exec(key);
+    if (cause) return `Root cause ${Number(cause[1]) + 1}`;
+    return (
+      {
+        warrantyDays: 'Warranty window',
+        reviewDeadlineDays: 'Review deadline',
+        correctiveActionDueDays: 'Corrective action due',
+        countedAttributions: 'Attributions that count',
+        rootCauses: 'Root causes',
+      } as Record<string, string>
+    )[key];
+  };
 
   const move = (i: number, by: number) =>
     setCauses((list) => {
@@ -130,7 +150,10 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
         inputMode="numeric"
         min={1}
         value={value}
-        onChange={(e) => set(e.target.value)}
+        onChange={(e) => {
+          set(e.target.value);
+          fix(key);
+        }}
         aria-invalid={err(key) ? true : undefined}
         aria-describedby={[f(`${key}-hint`), err(key) ? f(`${key}-error`) : '']
           .filter(Boolean)
@@ -160,7 +183,10 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
           <p className="font-semibold text-brick-800">Nothing was saved:</p>
           <ul className="mt-1 list-disc pl-5 text-brick-800">
             {summary.map(([k, m]) => (
-              <li key={k}>{m}</li>
+              <li key={k}>
+                {nameOf(k) ? `${nameOf(k)}: ` : ''}
+                {m}
+              </li>
             ))}
           </ul>
         </div>
@@ -209,11 +235,12 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
                 <input
                   type="checkbox"
                   checked={counted.includes(a)}
-                  onChange={(e) =>
+                  onChange={(e) => {
                     setCounted((list) =>
                       e.target.checked ? [...list, a] : list.filter((x) => x !== a),
-                    )
-                  }
+                    );
+                    fix('countedAttributions');
+                  }}
                   className="size-5 accent-sea-700"
                 />
                 {ATTRIBUTION_LABELS[a]}
@@ -254,7 +281,10 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
                   <input
                     id={f(`cause-${c.key}`)}
                     value={c.label}
-                    onChange={(e) => edit(i, { label: e.target.value })}
+                    onChange={(e) => {
+                      edit(i, { label: e.target.value });
+                      fix(key);
+                    }}
                     aria-invalid={err(key) ? true : undefined}
                     aria-describedby={err(key) ? f(`cause-${c.key}-error`) : undefined}
                     className={input}
@@ -269,7 +299,10 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
                   <input
                     type="checkbox"
                     checked={c.active}
-                    onChange={(e) => edit(i, { active: e.target.checked })}
+                    onChange={(e) => {
+                      edit(i, { active: e.target.checked });
+                      fix('rootCauses');
+                    }}
                     className="size-5 accent-sea-700"
                   />
                   Offered to reviewers
