@@ -59,34 +59,22 @@ export interface ShopCounts {
 const pgArray = (values: readonly (string | number)[]) => `{${values.join(',')}}`;
 
 /**
- * The Hyndman & Fan type 7 quantile of a sorted integer array at h = p × (n − 1), with
- * percentile_cont's own float8 arithmetic (lo + (h − ⌊h⌋) × (hi − lo)), so the figures do not
- * change. Sorting integers for array_agg costs far less than percentile_cont's sort of float8
- * values (passed by reference, one allocation each, on 32-bit PGlite).
- */
-const type7 = (sorted: string, h: string) =>
-  sql.raw(`case when floor(${h}) = ceil(${h}) then ${sorted}[floor(${h})::int + 1]::float8
-        else ${sorted}[floor(${h})::int + 1]
-          + (${h} - floor(${h})) * (${sorted}[ceil(${h})::int + 1] - ${sorted}[floor(${h})::int + 1])
-        end`);
-
-/**
  * The one SQL aggregate behind the comparison: per shop, the jobs that became ready in the period
  * (turnaround quantiles, on-time, money, bench time), the jobs collected in it and those of them
  * that came back (trials and events of the comeback rate), audit samples of rounds ending in it,
  * and open corrective actions. The period is [from, to + 1 day) in each shop's own zone.
  *
  * Trials are the collected jobs whose warranty window has closed plus those still inside it that
- * came back: the first is a count over the (shop, collected_at) index, the second comes from the
- * few comebacks of the period, so no collected job is looked up one by one. The ready jobs'
- * figures are read from the jobs_shop_ready_figures_idx columns alone (an index-only scan once the
- * table is vacuumed).
+ * came back: the first is a count over the (shop, collected_at, id) index, the second hash-joins
+ * the few comebacks of the period to the collected jobs read from that same index, so no job is
+ * looked up one by one. The ready jobs' figures are read from the jobs_shop_ready_figures_idx
+ * columns alone (an index-only scan once the table is vacuumed).
  *
- * Medians and 90th percentiles are Hyndman & Fan type 7, the definition @reelwright/metrics uses,
- * taken from the sorted values (type7). The warranty window is whole 24-hour days as in the metrics
- * engine (an interval in days would follow the session zone's daylight-saving changes); "window
- * closed" compares collected_at with one instant, asOf less the window, rather than doing interval
- * arithmetic on every row. Each part is a lateral subquery per shop so that it reads the
+ * percentile_cont is Hyndman & Fan type 7, the definition @reelwright/metrics uses. The warranty
+ * window is whole 24-hour days as in the metrics engine (an interval in days would follow the
+ * session zone's daylight-saving changes); "window closed" compares collected_at with one instant,
+ * asOf less the window, rather than doing interval arithmetic on every row (each result would be
+ * allocated on 32-bit PGlite). Each part is a lateral subquery per shop so that it reads the
  * (shop, instant) indexes whatever the planner's statistics say.
  */
 export async function aggregateShops(
@@ -119,24 +107,24 @@ export async function aggregateShops(
     ${shopsInPeriod}
     select s.id as "shopId",
       r.jobs_ready as "jobsReady",
-      coalesce(cardinality(r.customer_sorted), 0) as "customerN", r.customer_total as "customerTotal",
-      ${type7('r.customer_sorted', 'h.c50')} as "customerMedian",
-      ${type7('r.customer_sorted', 'h.c90')} as "customerP90",
-      coalesce(cardinality(r.bench_sorted), 0) as "benchN", r.bench_total as "benchTotal",
-      ${type7('r.bench_sorted', 'h.b50')} as "benchMedian",
-      ${type7('r.bench_sorted', 'h.b90')} as "benchP90",
+      r.customer_n as "customerN", r.customer_total as "customerTotal",
+      r.customer_q[1] as "customerMedian", r.customer_q[2] as "customerP90",
+      r.bench_n as "benchN", r.bench_total as "benchTotal",
+      r.bench_q[1] as "benchMedian", r.bench_q[2] as "benchP90",
       r.waiting_minutes as "waitingMinutes", r.promised, r.on_time as "onTime",
       r.revenue_cents as "revenueCents", r.labour_cents as "labourCents",
       r.bench_minutes as "benchMinutes"
     from s
     cross join lateral (
       select count(*)::int as jobs_ready,
+        count(j.customer_turnaround_minutes)::int as customer_n,
         coalesce(sum(j.customer_turnaround_minutes), 0)::float8 as customer_total,
-        array_agg(j.customer_turnaround_minutes order by j.customer_turnaround_minutes)
-          filter (where j.customer_turnaround_minutes is not null) as customer_sorted,
+        percentile_cont(array[0.5, 0.9]) within group (order by j.customer_turnaround_minutes)
+          as customer_q,
+        count(j.bench_turnaround_minutes)::int as bench_n,
         coalesce(sum(j.bench_turnaround_minutes), 0)::float8 as bench_total,
-        array_agg(j.bench_turnaround_minutes order by j.bench_turnaround_minutes)
-          filter (where j.bench_turnaround_minutes is not null) as bench_sorted,
+        percentile_cont(array[0.5, 0.9]) within group (order by j.bench_turnaround_minutes)
+          as bench_q,
         coalesce(sum(j.customer_turnaround_minutes - j.bench_turnaround_minutes), 0)::float8
           as waiting_minutes,
         count(j.promised_at)::int as promised,
@@ -147,12 +135,6 @@ export async function aggregateShops(
       from jobs j
       where j.shop_id = s.id and j.ready_at >= s.t0 and j.ready_at < s.t1
     ) r
-    cross join lateral (
-      select 0.5::float8 * (cardinality(r.customer_sorted) - 1) as c50,
-        0.9::float8 * (cardinality(r.customer_sorted) - 1) as c90,
-        0.5::float8 * (cardinality(r.bench_sorted) - 1) as b50,
-        0.9::float8 * (cardinality(r.bench_sorted) - 1) as b90
-    ) h
   `),
     conn.execute<Row>(sql`
     ${shopsInPeriod}
