@@ -306,6 +306,12 @@ test.describe('comebacks', () => {
     expect(patch.status()).toBe(403);
     expect(patch.headers()['content-type']).toContain('application/problem+json');
     await expectAccessible(page);
+
+    // The shop page shows a technician the causes but not the split by technician.
+    await page.goto(`/shops/${marram}?from=2026-04-01&to=2026-06-30`);
+    const breakdown = page.getByRole('region', { name: /^Where the comebacks come from/ });
+    await expect(breakdown.getByRole('table', { name: 'By root cause' })).toBeVisible();
+    await expect(breakdown.getByRole('table', { name: /By technician/ })).toHaveCount(0);
     await tech.close();
 
     // Fennel Cove's lead does not see Marram Point's review at all.
@@ -328,27 +334,80 @@ test.describe('comebacks', () => {
     await lead.close();
   });
 
-  test('regional manager – sees the queues of the region, filters by shop, past-deadline reviews named', async ({
+  test('regional manager – sees the queues of the region, past-deadline reviews named, filters by shop and status', async ({
     browser,
   }) => {
-    const north = await browser.newContext({ storageState: storageState('managerNorth') });
-    const page = await north.newPage();
-    await page.goto('/comebacks');
-    const regions = page.getByRole('main').getByRole('region');
-    const names = await regions.getByRole('heading', { level: 2 }).allInnerTexts();
-    for (const n of names)
-      expect(['Marram Point', 'Saltwick Harbor', 'Skerry Wharf', 'Ternhollow Lake']).toContain(n);
-    const late = page.getByText(/^! Past the review deadline/);
-    if ((await late.count()) > 0) await expect(late.first()).toBeVisible();
-    await expectAccessible(page);
-    await shoot(page, 'comebacks-queue-region');
-    await page.getByLabel('Shop').selectOption({ label: 'Skerry Wharf' });
-    await expect(page).toHaveURL(/shop=\d+/);
-    await expect(page.getByRole('heading', { level: 2, name: 'Marram Point' })).toHaveCount(0);
-    await page.getByLabel('Status').selectOption({ label: 'Confirmed' });
-    await expect(page).toHaveURL(/status=confirmed/);
-    await expect(page.getByText('Confirmed:').first()).toBeVisible();
-    await north.close();
+    // A one-day deadline, so that the demo's open reviews from earlier days are past it.
+    const owner = await browser.newContext({ storageState: storageState('owner') });
+    const current = (await (await owner.request.get('/api/settings/comebacks')).json()) as {
+      settings: Record<string, unknown>;
+      rootCauses: { id: number; label: string; active: boolean }[];
+    };
+    const put = (reviewDeadlineDays: number) =>
+      owner.request.put('/api/settings/comebacks', {
+        data: {
+          ...current.settings,
+          reviewDeadlineDays,
+          rootCauses: current.rootCauses.map(({ id, label, active }) => ({ id, label, active })),
+        },
+      });
+    expect((await put(1)).status()).toBe(200);
+    try {
+      const north = await browser.newContext({ storageState: storageState('managerNorth') });
+      const page = await north.newPage();
+      await page.goto('/comebacks');
+      const queues = page.getByRole('main').getByRole('region');
+      const names = await queues.getByRole('heading', { level: 2 }).allInnerTexts();
+      expect(names.length).toBeGreaterThan(0);
+      for (const n of names)
+        expect(['Marram Point', 'Saltwick Harbor', 'Skerry Wharf', 'Ternhollow Lake']).toContain(n);
+      // Every open review a day old or more says, in words, that it is past the deadline.
+      const rows = queues.locator('tbody tr');
+      const count = await rows.count();
+      let late = 0;
+      for (let i = 0; i < count; i++) {
+        const row = rows.nth(i);
+        const age = parseInt(await row.locator('td').nth(3).innerText(), 10);
+        const flagged = (await row.getByText(/^! Past deadline/).count()) > 0;
+        expect(flagged, `row ${i}: ${age} days old`).toBe(age >= 1);
+        if (flagged) late++;
+      }
+      expect(late).toBeGreaterThan(0);
+      const stat = page.locator('dl > div').filter({ hasText: 'Past the review deadline' });
+      await expect(stat.locator('dd').first()).toHaveText(String(late));
+      await expectAccessible(page);
+      await shoot(page, 'comebacks-queue-region');
+
+      await page.getByLabel('Shop').selectOption({ label: 'Skerry Wharf' });
+      await expect(page).toHaveURL(/shop=\d+/);
+      await expect(page.getByRole('heading', { level: 2, name: 'Marram Point' })).toHaveCount(0);
+      await page.getByLabel('Status').selectOption({ label: 'Confirmed' });
+      await expect(page).toHaveURL(/status=confirmed/);
+      await expect(page.getByText(/^Confirmed: /).first()).toBeVisible();
+
+      // The shop page breaks the period's confirmed comebacks down, by technician too.
+      const skerry = await shopId(north.request, 'Skerry Wharf');
+      await page.goto(`/shops/${skerry}?from=2026-04-01&to=2026-06-30`);
+      const breakdown = page.getByRole('region', { name: /^Where the comebacks come from/ });
+      await expect(breakdown.getByRole('table', { name: 'By root cause' })).toBeVisible();
+      await expect(breakdown.getByRole('table', { name: 'By checklist step' })).toBeVisible();
+      const byTech = breakdown.getByRole('table', { name: 'By technician of the original job' });
+      await expect(byTech).toBeVisible();
+      // Each table adds up to the same number of confirmed comebacks.
+      const totals = await breakdown.locator('tfoot tr td:first-of-type').allInnerTexts();
+      expect(new Set(totals).size).toBe(1);
+      const techSum = (await byTech.locator('tbody tr td:nth-child(3)').allInnerTexts())
+        .map((t) => Number(t.replace(/,/g, '')))
+        .reduce((a, b) => a + b, 0);
+      expect(String(techSum)).toBe(totals[0]);
+      await expectAccessible(page);
+      await breakdown.scrollIntoViewIfNeeded();
+      await page.screenshot({ path: screenshotPath('comebacks-shop-breakdown-1280x900-screen') });
+      await north.close();
+    } finally {
+      expect((await put(Number(current.settings.reviewDeadlineDays))).status()).toBe(200);
+      await owner.close();
+    }
   });
 
   test('owner – edits the comeback settings; bad input is refused and nothing is saved', async ({

@@ -32,8 +32,8 @@ export function ComebackStatusBadge(props: {
 
 export function PastDeadlineBadge({ days }: { days?: number }) {
   return (
-    <span className={`${base} bg-brick-700 text-white ring-brick-700`}>
-      <span aria-hidden="true">!</span> Past the review deadline
+    <span className="inline-flex items-baseline gap-1 rounded-md bg-brick-700 px-2.5 py-0.5 text-sm font-medium text-white">
+      <span aria-hidden="true">!</span> Past deadline
       {days !== undefined && days > 0 ? ` by ${days === 1 ? '1 day' : `${days} days`}` : ''}
     </span>
   );

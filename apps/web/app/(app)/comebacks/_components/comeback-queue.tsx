@@ -165,11 +165,20 @@ function ShopQueue(props: { shopId: number; name: string; rows: ComebackRow[]; a
         </p>
       </div>
       <div className="overflow-x-auto">
-        <table className="w-full min-w-[56rem] text-left">
+        <table className="w-full min-w-[60rem] table-fixed text-left">
           <caption className="sr-only">
             Comebacks of {props.name}&apos;s work
             {open > 0 ? ', open ones oldest first' : ''}
           </caption>
+          {/* The same widths in every shop's table, so the queues line up. */}
+          <colgroup>
+            <col className="w-[9.5rem]" />
+            <col />
+            <col className="w-[12.5rem]" />
+            <col className="w-[6.5rem]" />
+            <col className="w-[6.5rem]" />
+            <col className="w-[13rem]" />
+          </colgroup>
           <thead>
             <tr className="border-b border-sand-300 text-sm text-slate-600">
               <th scope="col" className="py-2 pr-3 pl-5 font-medium">
@@ -187,7 +196,7 @@ function ShopQueue(props: { shopId: number; name: string; rows: ComebackRow[]; a
               <th scope="col" className="num py-2 pr-3 font-medium">
                 Age
               </th>
-              <th scope="col" className="py-2 pr-5 font-medium">
+              <th scope="col" className="py-2 pr-5 pl-3 font-medium">
                 Review
               </th>
             </tr>
@@ -249,7 +258,7 @@ function QueueRow({ c, asOf }: { c: ComebackRow; asOf: string }) {
           {c.status === 'open' ? `due ${onDate(c.dueAt, tz)}` : `to review`}
         </span>
       </td>
-      <td className="py-3 pr-5">
+      <td className="py-3 pr-5 pl-3">
         <div className="flex flex-col items-start gap-1.5">
           {c.overdue && <PastDeadlineBadge days={daysPast(c.dueAt, asOf)} />}
           <ComebackStatusBadge status={c.status} attribution={c.attribution} />
