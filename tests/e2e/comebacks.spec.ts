@@ -224,6 +224,9 @@ test.describe('comebacks', () => {
     expect(after.events).toBe(before.events + 1);
     expect(after.trials).toBe(before.trials + 1);
     expect(after.shown).toBe(percent(before.events + 1, before.trials + 1));
+    console.log(
+      `Marram Point, jobs collected ${day}: ${before.events} of ${before.trials} (${before.shown}) → ${after.events} of ${after.trials} (${after.shown})`,
+    );
     await owner.close();
   });
 

@@ -816,7 +816,13 @@ export async function comebackBreakdown(
         confirmed: Number(r.confirmed),
         counted: Number(r.counted),
       }))
-      .sort((a, b) => b.confirmed - a.confirmed || a.label.localeCompare(b.label));
+      // Unnamed causes and steps go last: the named ones are what a lead can act on.
+      .sort(
+        (a, b) =>
+          Number(a.key === '') - Number(b.key === '') ||
+          b.confirmed - a.confirmed ||
+          a.label.localeCompare(b.label),
+      );
   const causes = pick('cause', 'Not recorded');
   const total = causes.reduce((n, r) => n + r.confirmed, 0);
   const totalCounted = causes.reduce((n, r) => n + r.counted, 0);

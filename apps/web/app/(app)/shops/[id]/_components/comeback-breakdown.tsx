@@ -82,7 +82,7 @@ export function ComebackBreakdownPanel(props: { shopId: number; data: ComebackBr
             .
           </p>
         ) : (
-          <div className="grid gap-8 lg:grid-cols-2">
+          <div className="grid items-start gap-8 lg:grid-cols-2">
             <BreakdownTable
               caption="By root cause"
               first="Root cause"
