@@ -172,12 +172,12 @@ function ShopQueue(props: { shopId: number; name: string; rows: ComebackRow[]; a
           </caption>
           {/* The same widths in every shop's table, so the queues line up. */}
           <colgroup>
-            <col className="w-[9.5rem]" />
+            <col className="w-[11rem]" />
             <col />
+            <col className="w-[12rem]" />
+            <col className="w-[6.5rem]" />
+            <col className="w-[6.5rem]" />
             <col className="w-[12.5rem]" />
-            <col className="w-[6.5rem]" />
-            <col className="w-[6.5rem]" />
-            <col className="w-[13rem]" />
           </colgroup>
           <thead>
             <tr className="border-b border-sand-300 text-sm text-slate-600">
