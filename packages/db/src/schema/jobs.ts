@@ -79,9 +79,9 @@ export const jobs = pgTable(
     ),
     index('jobs_shop_checked_in_at_idx').on(t.shopId, t.checkedInAt),
     index('jobs_shop_state_idx').on(t.shopId, t.state),
-    // Without the id on purpose: with it the planner hash-joins every collected job of the period
-    // to its comebacks, faster on PostgreSQL but slower than one lookup per comeback on PGlite.
-    index('jobs_shop_collected_at_idx').on(t.shopId, t.collectedAt),
+    // With the id, a period's collected jobs meet their comebacks in a hash join read from this
+    // index alone instead of one primary-key lookup per comeback (the network comparison).
+    index('jobs_shop_collected_at_idx').on(t.shopId, t.collectedAt, t.id),
     index('jobs_reel_id_idx').on(t.reelId),
     index('jobs_customer_id_idx').on(t.customerId),
     index('jobs_technician_id_idx').on(t.technicianId),

@@ -1,0 +1,2 @@
+DROP INDEX "jobs_shop_collected_at_idx";--> statement-breakpoint
+CREATE INDEX "jobs_shop_collected_at_idx" ON "jobs" USING btree ("shop_id","collected_at","id");
