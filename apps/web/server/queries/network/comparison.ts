@@ -65,10 +65,10 @@ const pgArray = (values: readonly (string | number)[]) => `{${values.join(',')}}
  * and open corrective actions. The period is [from, to + 1 day) in each shop's own zone.
  *
  * Trials are the collected jobs whose warranty window has closed plus those still inside it that
- * came back: the first is a count over the (shop, collected_at) index, the second comes from the
- * few comebacks of the period, so no collected job is looked up one by one. The ready jobs'
- * figures are read from the jobs_shop_ready_figures_idx columns alone (an index-only scan once the
- * table is vacuumed).
+ * came back: the first is a count over the (shop, collected_at, id) index, the second hash-joins
+ * the few comebacks of the period to the collected jobs read from that same index, so no job is
+ * looked up one by one. The ready jobs' figures are read from the jobs_shop_ready_figures_idx
+ * columns alone (an index-only scan once the table is vacuumed).
  *
  * percentile_cont is Hyndman & Fan type 7, the definition @reelwright/metrics uses. The warranty
  * window is whole 24-hour days as in the metrics engine (an interval in days would follow the
