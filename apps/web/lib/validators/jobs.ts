@@ -119,6 +119,8 @@ export const reelInput = z.object({
     (s) => !s || /^\d{1,2}(\.\d{1,2})?:1$/.test(s),
     'Write it as printed, e.g. 6.2:1',
   ),
+  /** As printed on the reel; with maker and model it recognises the reel at any shop. */
+  serialNumber: optionalText(40, 'Serial number'),
   useProfile: z.enum(['light', 'heavy']).default('light'),
   water: z.enum(['salt', 'fresh']).default('fresh'),
 });

@@ -137,6 +137,7 @@ export async function checkIn(
           size: r.size ?? null,
           bearingCount: r.bearingCount ?? null,
           gearRatio: r.gearRatio ?? null,
+          serialNumber: r.serialNumber ?? null,
           useProfile: r.useProfile,
           water: r.water,
           createdAt: now,

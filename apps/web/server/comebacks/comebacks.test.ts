@@ -251,6 +251,40 @@ describe('detection at check-in', () => {
     expect(flag.comeback?.originalJob).toMatchObject({ id: r.original.id, visible: false });
   });
 
+  it('technician – a new customer at another shop with the same reel (maker, model, serial) is recognised', async () => {
+    const r = await reelWithHistory({ lagMs: 20 * DAY });
+    await db().update(reels).set({ serialNumber: 'SN-4471 B' }).where(eq(reels.id, r.reel.id));
+    const walkIn = (serialNumber?: string, name = 'Walk-in Angler') =>
+      checkIn(
+        net.as.kelpTech,
+        {
+          customer: { name, reminderConsent: false },
+          reel: {
+            kind: 'spinning',
+            maker: 'TESTMAKER',
+            model: r.reel.model,
+            serialNumber,
+            useProfile: 'light',
+            water: 'fresh',
+          },
+          serviceType: 'repair',
+          promisedOn: PROMISED,
+          complaint: 'Bail will not close.',
+        },
+        { now: NOW },
+      );
+    // Same serial written differently: the same reel, so Dune's work came back.
+    const same = await walkIn('sn4471b');
+    expect(await comebackOf(same.id)).toMatchObject({
+      originalJobId: r.original.id,
+      originalShopId: net.shops.dune.id,
+      daysSinceCollection: 20,
+    });
+    // Maker and model alone, or another serial, name another reel: no flag.
+    expect((await walkIn(undefined, 'Second Walk-in')).comebackId).toBeNull();
+    expect((await walkIn('SN-4471 C', 'Third Walk-in')).comebackId).toBeNull();
+  });
+
   it('technician – no flag once the warranty window has closed', async () => {
     const r = await reelWithHistory({ lagMs: 91 * DAY });
     const { id, comebackId, emailsQueued } = await checkInReel(net.as.tech, r);

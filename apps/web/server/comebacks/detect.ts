@@ -7,6 +7,7 @@ import { badRequest, conflict, forbidden } from '../errors';
 import { queueEmail } from '../mail/outbox';
 import type { Principal } from '../principal';
 import { comebackReviewEmail } from './emails';
+import { sameReelJobs } from './same-reel';
 import { loadComebackSettings } from './settings';
 
 const DAY = 86_400_000;
@@ -166,7 +167,7 @@ export async function detectAtCheckIn(
     .from(jobs)
     .where(
       and(
-        eq(jobs.reelId, job.reelId),
+        sameReelJobs(job.reelId),
         ne(jobs.id, job.id),
         isNotNull(jobs.collectedAt),
         lte(jobs.collectedAt, job.checkedInAt),
@@ -222,8 +223,8 @@ export async function linkComeback(
           collectedAt: jobs.collectedAt,
         })
         .from(jobs)
-        .where(eq(jobs.id, input.originalJobId));
-      if (!original || original.reelId !== job.reelId || original.id === job.id)
+        .where(and(eq(jobs.id, input.originalJobId), sameReelJobs(job.reelId)));
+      if (!original || original.id === job.id)
         throw badRequest('Some body fields are not valid.', [
           { field: 'body.originalJobId', message: 'Choose an earlier job of this same reel' },
         ]);

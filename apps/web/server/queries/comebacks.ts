@@ -45,6 +45,7 @@ import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
 import { applicableSteps } from './bench';
+import { sameReelJobs } from '../comebacks/same-reel';
 import { shopScope } from './scope';
 
 const DAY = 86_400_000;
@@ -656,7 +657,7 @@ export async function jobComeback(principal: Principal, jobId: number): Promise<
       .innerJoin(shops, eq(shops.id, jobs.shopId))
       .where(
         and(
-          eq(jobs.reelId, job.reelId),
+          sameReelJobs(job.reelId),
           ne(jobs.id, job.id),
           isNotNull(jobs.collectedAt),
           lte(jobs.collectedAt, job.checkedInAt),

@@ -20,6 +20,11 @@ const REEL_TEXT_FIELDS = [
   { key: 'size', label: 'Size (optional)', hint: 'As printed, e.g. 4000 or 30W' },
   { key: 'bearingCount', label: 'Bearings (optional)', inputMode: 'numeric' },
   { key: 'gearRatio', label: 'Gear ratio (optional)', hint: 'As printed, e.g. 6.2:1' },
+  {
+    key: 'serialNumber',
+    label: 'Serial number (optional)',
+    hint: 'As printed on the reel; it lets any shop of the network recognise a return',
+  },
 ] as const;
 
 /** Step 2, once the customer is known: one of their reels, or a new one described here. */

@@ -43,6 +43,7 @@ const blankReel = {
   size: '',
   bearingCount: '',
   gearRatio: '',
+  serialNumber: '',
   useProfile: 'light',
   water: 'fresh',
 };
