@@ -78,7 +78,7 @@ async function marramRate(page: Page, period: string) {
   await expect(row).toHaveCount(1);
   // The rate's explanation (its button's description) says "E of T jobs came back for …".
   const found = await row.evaluate((tr) => {
-    for (const tip of tr.querySelectorAll('[role=tooltip]')) {
+    for (const tip of Array.from(tr.querySelectorAll('[role=tooltip]'))) {
       const text = tip.textContent ?? '';
       if (!/came back for|none has come back/.test(text)) continue;
       const button = tr.querySelector(`[aria-describedby="${tip.id}"]`);
