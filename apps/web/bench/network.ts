@@ -74,22 +74,26 @@ async function serverCpuMeter(db: Db): Promise<(() => number) | null> {
   const stat = (pid: number | string) => {
     try {
       const text = readFileSync(`/proc/${pid}/stat`, 'utf8');
-      return text.slice(text.lastIndexOf(')') + 2).split(' ');
+      return {
+        name: text.slice(text.indexOf('(') + 1, text.lastIndexOf(')')),
+        f: text.slice(text.lastIndexOf(')') + 2).split(' '),
+      };
     } catch {
       return null;
     }
   };
+  // A remote server's backend pid may happen to name some local process: only trust a postgres.
   const backend = stat(rows[0]!.pid);
-  if (!backend) return null;
-  const postmaster = Number(backend[1]);
+  if (!backend || backend.name !== 'postgres') return null;
+  const postmaster = Number(backend.f[1]);
   const ticksPerMs = 100 / 1000; // USER_HZ is 100 on Linux
   return () => {
     let ticks = 0;
     for (const pid of readdirSync('/proc')) {
       if (!/^\d+$/.test(pid)) continue;
-      const f = stat(pid);
-      if (f && (Number(pid) === postmaster || Number(f[1]) === postmaster))
-        ticks += Number(f[11]) + Number(f[12]);
+      const p = stat(pid)?.f;
+      if (p && (Number(pid) === postmaster || Number(p[1]) === postmaster))
+        ticks += Number(p[11]) + Number(p[12]);
     }
     return ticks / ticksPerMs;
   };
