@@ -1,2 +1,0 @@
-DROP INDEX "jobs_shop_collected_at_idx";--> statement-breakpoint
-CREATE INDEX "jobs_shop_collected_at_idx" ON "jobs" USING btree ("shop_id","collected_at","id");
