@@ -19,8 +19,8 @@ export default async function CorrectiveActionsPage() {
   });
   const lead =
     principal.role === 'shop_lead'
-      ? 'What your shop must put right after a rejected audit. Move each action along and say what was done; your regional manager verifies it.'
-      : 'Actions the shops must carry out after a rejected audit. The shop lead moves each along; you verify it once done.';
+      ? 'What your shop must put right after a rejected audit or a confirmed comeback. Move each action along and say what was done; your regional manager verifies it.'
+      : 'Actions the shops must carry out after a rejected audit or a confirmed comeback. The shop lead moves each along; you verify it once done.';
   return (
     <>
       <PageHeader title="Corrective actions" lead={lead} />
