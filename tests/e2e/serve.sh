@@ -44,4 +44,5 @@ export NEXTAUTH_URL="http://127.0.0.1:$port"
 unset DATABASE_URL
 pnpm --silent --filter @reelwright/db seed
 cd apps/web
-pnpm exec next start --hostname 127.0.0.1 --port "$port"
+# Idle connections stay open longer than a client keeps them, so a reused one is never reset.
+pnpm exec next start --hostname 127.0.0.1 --port "$port" --keepAliveTimeout 65000

@@ -105,4 +105,4 @@ cat <<MSG
 
 MSG
 cd apps/web
-exec pnpm exec next start --hostname 127.0.0.1 --port "$PORT"
+exec pnpm exec next start --hostname 127.0.0.1 --port "$PORT" --keepAliveTimeout 65000
