@@ -1,13 +1,12 @@
 import { and, desc, eq, isNotNull, lte, ne, type Tx } from '@reelwright/db';
-import { comebacks, customers, jobs, reels, shops, users, type Job } from '@reelwright/db/schema';
+import { comebacks, jobs, users, type Job } from '@reelwright/db/schema';
 import type { ComebackLinkInput } from '~/lib/validators/comebacks';
 import { lockJob, logActivity, pgError } from '../bench/shared';
 import { db } from '../db';
 import { badRequest, conflict, forbidden } from '../errors';
-import { queueEmail } from '../mail/outbox';
 import type { Principal } from '../principal';
-import { comebackReviewEmail } from './emails';
 import { sameReelJobs } from './same-reel';
+import { queueReviewEmails } from './notify';
 import { loadComebackSettings } from './settings';
 
 const DAY = 86_400_000;
@@ -47,7 +46,6 @@ async function recordComeback(
   },
 ) {
   const { principal, job, original, now } = args;
-  const settings = await loadComebackSettings(tx);
   const days = daysSince(original.collectedAt, job.checkedInAt);
   await tx
     .update(jobs)
@@ -98,54 +96,13 @@ async function recordComeback(
     at: now,
   });
 
-  const [context] = await tx
-    .select({
-      returnShop: shops.name,
-      customerName: customers.name,
-      maker: reels.maker,
-      model: reels.model,
-      size: reels.size,
-    })
-    .from(jobs)
-    .innerJoin(shops, eq(shops.id, jobs.shopId))
-    .innerJoin(customers, eq(customers.id, jobs.customerId))
-    .innerJoin(reels, eq(reels.id, jobs.reelId))
-    .where(eq(jobs.id, job.id));
-  const [originalShop] = await tx
-    .select({ name: shops.name })
-    .from(shops)
-    .where(eq(shops.id, original.shopId));
   const leads = await tx
     .select({ name: users.name, email: users.email })
     .from(users)
     .where(
       and(eq(users.shopId, original.shopId), eq(users.role, 'shop_lead'), eq(users.active, true)),
     );
-  for (const lead of leads) {
-    const message = comebackReviewEmail({
-      recipientName: lead.name,
-      comebackId: comeback.id,
-      originalShopName: originalShop!.name,
-      returnShopName: context!.returnShop,
-      returnJobId: job.id,
-      originalJobId: original.id,
-      reel: [context!.maker, context!.model, context!.size].filter(Boolean).join(' '),
-      customerName: context!.customerName,
-      daysSinceCollection: days,
-      symptom: args.symptom,
-      detection: args.detection,
-      reviewDeadlineDays: settings.reviewDeadlineDays,
-    });
-    await queueEmail(tx, {
-      kind: 'comeback_review',
-      to: lead.email,
-      ...message,
-      jobId: job.id,
-      shopId: original.shopId,
-      entityType: 'comeback',
-      entityId: comeback.id,
-    });
-  }
+  await queueReviewEmails(tx, comeback, leads);
   if (leads.length)
     await tx.update(comebacks).set({ notifiedAt: now }).where(eq(comebacks.id, comeback.id));
   return { comebackId: comeback.id, emailsQueued: leads.length };

@@ -3,7 +3,6 @@ import {
   activityLog,
   comebacks,
   correctiveActions,
-  customers,
   jobs,
   reels,
   rootCauses,
@@ -14,13 +13,11 @@ import {
 import { dismissalText, parseDismissal, type ComebackPatch } from '~/lib/validators/comebacks';
 import { db } from '../db';
 import { badRequest, conflict, forbidden, notFound, type FieldError } from '../errors';
-import { queueEmail } from '../mail/outbox';
 import type { Principal } from '../principal';
 import { applicableSteps } from '../queries/bench';
 import { getComeback, redoCost, reviewRights, type ComebackDetail } from '../queries/comebacks';
 import { shopScope } from '../queries/scope';
-import { comebackReviewEmail } from './emails';
-import { loadComebackSettings } from './settings';
+import { queueReviewEmails } from './notify';
 
 const REVIEW_FIELDS = [
   'status',
@@ -310,54 +307,14 @@ export async function updateComeback(
 
     // The new assignee hears of it by e-mail, with the same link as the shop lead got.
     if (patch.assigneeId != null && patch.assigneeId !== before.assigneeId) {
-      const settings = await loadComebackSettings(tx);
-      const [facts] = await tx
-        .select({
-          returnShop: shops.name,
-          customerName: customers.name,
-          maker: reels.maker,
-          model: reels.model,
-          size: reels.size,
-        })
-        .from(jobs)
-        .innerJoin(shops, eq(shops.id, jobs.shopId))
-        .innerJoin(customers, eq(customers.id, jobs.customerId))
-        .innerJoin(reels, eq(reels.id, jobs.reelId))
-        .where(eq(jobs.id, before.jobId));
-      const [originalShop] = await tx
-        .select({ name: shops.name })
-        .from(shops)
-        .where(eq(shops.id, before.originalShopId));
       const [person] = await tx
         .select({ name: users.name, email: users.email })
         .from(users)
         .where(eq(users.id, patch.assigneeId));
-      const message = comebackReviewEmail({
-        recipientName: person!.name,
-        comebackId: id,
-        originalShopName: originalShop!.name,
-        returnShopName: facts!.returnShop,
-        returnJobId: before.jobId,
-        originalJobId: before.originalJobId,
-        reel: [facts!.maker, facts!.model, facts!.size].filter(Boolean).join(' '),
-        customerName: facts!.customerName,
-        daysSinceCollection: before.daysSinceCollection,
-        symptom: before.symptom,
-        detection: before.detection,
-        reviewDeadlineDays: settings.reviewDeadlineDays,
+      return queueReviewEmails(tx, before, [person!], {
         assignedBy: principal.name,
         baseUrl: options.baseUrl,
       });
-      await queueEmail(tx, {
-        kind: 'comeback_review',
-        to: person!.email,
-        ...message,
-        jobId: before.jobId,
-        shopId: before.originalShopId,
-        entityType: 'comeback',
-        entityId: id,
-      });
-      return 1;
     }
     return 0;
   });
