@@ -1,6 +1,7 @@
 'use client';
 
-import { useId, useState, type ReactNode } from 'react';
+import { useId, useState } from 'react';
+import { SaveBar } from '~/components/save-bar';
 import {
   ATTRIBUTION_LABELS,
   ATTRIBUTIONS,
@@ -15,63 +16,8 @@ import {
   type DispositionValue,
 } from '~/lib/validators/comebacks';
 import type { ComebackDetail } from '~/server/queries/comebacks';
+import { ATTRIBUTION_HINTS, Choice, FIELD_NAMES, FieldError, input } from './review-fields';
 import { fieldErrors, useComebackMutation } from './use-comeback-mutation';
-
-const ATTRIBUTION_HINTS: Record<AttributionValue, string> = {
-  workmanship: 'The service missed or did something wrong',
-  part_failure: 'A part the shop fitted failed',
-  customer_damage: 'Dropped, salted, opened or misused since',
-  unrelated: 'A different fault from the one serviced',
-  undetermined: 'The cause cannot be told',
-};
-
-const FIELD_NAMES: Record<string, string> = {
-  dismissReason: 'Why it is dismissed',
-  dismissNote: 'Note',
-  attribution: 'Attribution',
-  rootCauseId: 'Root cause',
-  rootCauseNote: 'What was found',
-  checklistStepId: 'Checklist step',
-  disposition: 'Disposition',
-  correctiveAction: 'Corrective action',
-  'correctiveAction.title': 'Corrective action title',
-  'correctiveAction.ownerId': 'Corrective action owner',
-  'correctiveAction.dueOn': 'Corrective action due date',
-};
-
-const input =
-  'mt-1 block min-h-11 w-full rounded-md border border-slate-400 bg-white px-3 aria-invalid:border-brick-600';
-
-function Choice(props: {
-  name: string;
-  checked: boolean;
-  onChange: () => void;
-  children: ReactNode;
-  describedBy?: string;
-}) {
-  return (
-    <label className="flex min-h-12 cursor-pointer items-start gap-3 rounded-md border border-sand-300 bg-white px-4 py-2.5 has-checked:border-sea-700 has-checked:bg-sea-50 has-checked:ring-1 has-checked:ring-sea-700">
-      <input
-        type="radio"
-        name={props.name}
-        checked={props.checked}
-        onChange={props.onChange}
-        aria-describedby={props.describedBy}
-        className="mt-1 size-5 shrink-0 accent-sea-700"
-      />
-      <span>{props.children}</span>
-    </label>
-  );
-}
-
-function FieldError({ id, message }: { id: string; message?: string }) {
-  if (!message) return null;
-  return (
-    <p id={id} className="mt-1 font-medium text-brick-700">
-      {message}
-    </p>
-  );
-}
 
 /** The review: confirm or dismiss, then attribution, root cause, step, disposition and follow-up. */
 export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
@@ -512,18 +458,12 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
           </>
         )}
 
-        <div className="flex flex-wrap items-center gap-4 border-t border-sand-200 pt-5">
-          <button
-            type="submit"
-            disabled={save.isPending}
-            className="inline-flex min-h-12 items-center rounded-md bg-sea-700 px-6 text-lg font-semibold text-white hover:bg-sea-800 disabled:opacity-60"
-          >
-            {save.isPending ? 'Saving…' : 'Save the review'}
-          </button>
-          <p aria-live="polite" className="font-medium text-sea-800">
-            {saved && !save.isPending && !save.isError ? 'Review saved.' : ''}
-          </p>
-        </div>
+        <SaveBar
+          label="Save the review"
+          pending={save.isPending}
+          done={saved && !save.isPending && !save.isError ? 'Review saved.' : ''}
+          className="border-t border-sand-200 pt-5"
+        />
       </form>
     </section>
   );

@@ -2,6 +2,7 @@
 
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useId, useState } from 'react';
+import { SaveBar } from '~/components/save-bar';
 import { Panel } from '~/components/ui';
 import { ProblemError } from '~/lib/api-client';
 import {
@@ -381,23 +382,17 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
         </div>
       </Panel>
 
-      <div className="flex flex-wrap items-center gap-4">
-        <button
-          type="submit"
-          disabled={save.isPending}
-          className="inline-flex min-h-12 items-center rounded-md bg-sea-700 px-6 text-lg font-semibold text-white hover:bg-sea-800 disabled:opacity-60"
-        >
-          {save.isPending ? 'Saving…' : 'Save the comeback settings'}
-        </button>
-        <p aria-live="polite" className="font-medium text-sea-800">
-          {saved && !save.isPending && !save.isError ? 'Saved.' : ''}
-        </p>
+      <SaveBar
+        label="Save the comeback settings"
+        pending={save.isPending}
+        done={saved && !save.isPending && !save.isError ? 'Saved.' : ''}
+      >
         {save.isError && Object.keys(server).length === 0 && (
           <p role="alert" className="font-medium text-brick-700">
             Not saved: {save.error.message}
           </p>
         )}
-      </div>
+      </SaveBar>
     </form>
   );
 }
