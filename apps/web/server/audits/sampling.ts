@@ -78,8 +78,8 @@ export interface ShopSeverity {
   reason: string;
 }
 
-/** A shop's rounds that count for the switching rules (not cancelled), in period order. */
-function roundsOf(conn: Conn, shopIds: readonly number[]) {
+/** The shops' rounds (every shop's for null) that count for the switching rules, in period order. */
+function roundsOf(conn: Conn, shopIds: readonly number[] | null) {
   return conn
     .select({
       id: auditRounds.id,
@@ -96,7 +96,10 @@ function roundsOf(conn: Conn, shopIds: readonly number[]) {
     })
     .from(auditRounds)
     .where(
-      and(inArray(auditRounds.shopId, [...shopIds]), sql`${auditRounds.status} <> 'cancelled'`),
+      and(
+        shopIds ? inArray(auditRounds.shopId, [...shopIds]) : undefined,
+        sql`${auditRounds.status} <> 'cancelled'`,
+      ),
     )
     .orderBy(asc(auditRounds.periodStart), asc(auditRounds.id));
 }
@@ -140,14 +143,20 @@ export async function shopSeverity(conn: Conn, shopId: number): Promise<ShopSeve
   return (await shopSeverities(conn, [shopId])).get(shopId)!;
 }
 
-/** The severity of each shop's next round, read in one query (the network view asks for all). */
+/**
+ * The severity of each shop's next round, read in one query (the network view asks for all:
+ * null, which leaves out the shops without rounds, whose severity is normal).
+ */
 export async function shopSeverities(
   conn: Conn,
-  shopIds: readonly number[],
+  shopIds: readonly number[] | null,
 ): Promise<Map<number, ShopSeverity>> {
-  const rounds = shopIds.length === 0 ? [] : await roundsOf(conn, shopIds);
-  const byShop = new Map<number, RoundRow[]>(shopIds.map((id) => [id, []]));
-  for (const r of rounds) byShop.get(r.shopId)?.push(r);
+  const rounds = shopIds?.length === 0 ? [] : await roundsOf(conn, shopIds);
+  const byShop = new Map<number, RoundRow[]>((shopIds ?? []).map((id) => [id, []]));
+  for (const r of rounds) {
+    if (!byShop.has(r.shopId)) byShop.set(r.shopId, []);
+    byShop.get(r.shopId)!.push(r);
+  }
   return new Map([...byShop].map(([id, rows]) => [id, severityFromRounds(rows)]));
 }
 

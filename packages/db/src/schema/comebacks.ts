@@ -55,6 +55,12 @@ export const comebacks = pgTable(
     assigneeId: integer('assignee_id').references(() => users.id),
     reviewerId: integer('reviewer_id').references(() => users.id),
     detectedAt: instant('detected_at').notNull(),
+    /**
+     * The original job's collected_at, copied by the triggers of migration 0003 (on insert, and
+     * whenever that job's collection time changes), so that a period's comebacks are counted from
+     * this table's index alone. Never written by the application.
+     */
+    originalCollectedAt: instant('original_collected_at'),
     /** When the original shop's lead was e-mailed. */
     notifiedAt: instant('notified_at'),
     reviewedAt: instant('reviewed_at'),
@@ -68,6 +74,15 @@ export const comebacks = pgTable(
     index('comebacks_original_job_id_idx').on(t.originalJobId),
     index('comebacks_original_shop_status_idx').on(t.originalShopId, t.status),
     index('comebacks_original_shop_detected_at_idx').on(t.originalShopId, t.detectedAt),
+    // The network comparison's comebacks of jobs collected in a period, read from the index alone.
+    index('comebacks_original_shop_collected_idx').on(
+      t.originalShopId,
+      t.originalCollectedAt,
+      t.detectedAt,
+      t.originalJobId,
+      t.status,
+      t.attribution,
+    ),
   ],
 );
 export type Comeback = typeof comebacks.$inferSelect;

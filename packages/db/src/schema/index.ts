@@ -14,4 +14,5 @@ export * from './activity';
 export * from './settings';
 export * from './month-close';
 export * from './reminders';
+export * from './figures';
 export * from './relations';

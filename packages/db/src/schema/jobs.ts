@@ -96,6 +96,12 @@ export const jobs = pgTable(
       sql`(${t.state} not in ('ready', 'collected') or ${t.readyAt} is not null)
         and (${t.state} <> 'collected' or ${t.collectedAt} is not null)`,
     ),
+    // Seven digits (19 years of minutes): shop_month_figures lists turnarounds at a fixed width.
+    check(
+      'jobs_turnaround_range',
+      sql`${t.customerTurnaroundMinutes} between 0 and 9999999
+        and ${t.benchTurnaroundMinutes} between 0 and 9999999`,
+    ),
     check(
       'jobs_not_own_comeback',
       sql`${t.comebackOfJobId} is null or ${t.comebackOfJobId} <> ${t.id}`,

@@ -1,4 +1,4 @@
-import { asc, sql, type Db } from '@reelwright/db';
+import { asc, sql, type Db, type SQL } from '@reelwright/db';
 import { regions as regionsTable } from '@reelwright/db/schema';
 import {
   compareShops,
@@ -8,7 +8,7 @@ import {
 } from '@reelwright/metrics';
 import type { SeverityValue } from '~/lib/validators/audits';
 import type { ComparisonQuery, PeriodQuery } from '~/lib/validators/network';
-import { shopSeverities } from '../../audits/sampling';
+import { addDays, shopSeverities } from '../../audits/sampling';
 import { notFound } from '../../errors';
 import type { Principal } from '../../principal';
 import {
@@ -20,6 +20,7 @@ import {
   type NetworkShop,
   type QueryContext,
 } from './context';
+import { summariseSortedRuns } from './turnarounds';
 import type { NetworkComparisonResult, NetworkTotals, RateFigures, ShopFigures } from './types';
 
 /** One shop's counts for a period, straight from the aggregate. */
@@ -59,120 +60,185 @@ export interface ShopCounts {
 const pgArray = (values: readonly (string | number)[]) => `{${values.join(',')}}`;
 
 /**
- * The one SQL aggregate behind the comparison: per shop, the jobs that became ready in the period
- * (turnaround quantiles, on-time, money, bench time), the jobs collected in it and those of them
- * that came back (trials and events of the comeback rate), audit samples of rounds ending in it,
- * and open corrective actions. The period is [from, to + 1 day) in each shop's own zone.
+ * The whole months of a period, [first, end) as first days of months; both are the day after the
+ * period when it holds no whole month.
+ */
+export function wholeMonths(period: PeriodQuery): { first: string; end: string } {
+  const after = addDays(period.to, 1);
+  const first = period.from.endsWith('-01')
+    ? period.from
+    : `${addMonths(period.from.slice(0, 7))}-01`;
+  const end = `${after.slice(0, 7)}-01`;
+  return first < end ? { first, end } : { first: after, end: after };
+}
+
+/** "YYYY-MM" of the next month. */
+function addMonths(month: string): string {
+  const [y, m] = month.split('-').map(Number) as [number, number];
+  return new Date(Date.UTC(y, m, 1)).toISOString().slice(0, 7);
+}
+
+/**
+ * The SQL behind the comparison: per shop, the jobs that became ready in the period (counts,
+ * sums, on-time, money, bench time and every turnaround), the jobs collected in it and those of
+ * them that came back (trials and events of the comeback rate), audit samples of rounds ending in
+ * it, and open corrective actions. The period is [from, to + 1 day) in each shop's own zone.
+ *
+ * The period's whole months come from shop_month_figures, the monthly sums the database keeps
+ * equal to the jobs table (migration 0003): one row per shop and month instead of every job; the
+ * days before the first and after the last whole month are summed from the jobs by
+ * shop_ready_figures, the function that fills those rows. The turnarounds are kept whole and
+ * ascending, so the medians and 90th percentiles (Hyndman & Fan type 7, as the metrics engine)
+ * are taken here over exactly the period's jobs by merging those few sorted runs.
  *
  * Trials are the collected jobs whose warranty window has closed plus those still inside it that
- * came back: the first is a count over the (shop, collected_at, id) index, the second hash-joins
- * the few comebacks of the period to the collected jobs read from that same index, so no job is
- * looked up one by one. The ready jobs' figures are read from the jobs_shop_ready_figures_idx
- * columns alone (an index-only scan once the table is vacuumed).
- *
- * percentile_cont is Hyndman & Fan type 7, the definition @reelwright/metrics uses. The warranty
- * window is whole 24-hour days as in the metrics engine (an interval in days would follow the
- * session zone's daylight-saving changes); "window closed" compares collected_at with one instant,
- * asOf less the window, rather than doing interval arithmetic on every row (each result would be
- * allocated on 32-bit PGlite). Each part is a lateral subquery per shop so that it reads the
- * (shop, instant) indexes whatever the planner's statistics say.
+ * came back. A whole month ending on or before the start of the month in which asOf less the
+ * window falls is closed, and its collections are its row's; the others are counted from the
+ * (shop, collected_at, id) index, each compared with that instant. The comebacks are read from
+ * their own index, which carries the original job's collection time. The warranty window is whole
+ * 24-hour days as in the metrics engine (an interval in days would follow the session zone's
+ * daylight-saving changes). Each part is a lateral subquery per shop so that it reads the
+ * (shop, …) indexes whatever the planner's statistics say.
  */
 export async function aggregateShops(
   conn: Db,
-  shopIds: readonly number[],
+  /** Null for every shop of the network. */
+  shopIds: readonly number[] | null,
   period: PeriodQuery,
   asOf: Date,
   settings: NetworkSettingsUsed,
 ): Promise<Map<number, ShopCounts>> {
-  if (shopIds.length === 0) return new Map();
+  if (shopIds?.length === 0) return new Map();
   const at = asOf.toISOString();
   const hours = settings.warrantyDays * 24;
   const window = `${hours} hours`;
   const closedBy = new Date(asOf.getTime() - hours * 3_600_000).toISOString();
   const counted = pgArray(settings.countedAttributions);
+  const { first, end } = wholeMonths(period);
+  // The parts of the period outside whole months, and whole months that may not all be closed
+  // (in every zone: the instant's local date is at least its UTC date less 14 hours'), are read
+  // from the jobs; an aligned and closed period (a past month, quarter or season) needs none.
+  const rawStart = period.from < first;
+  const rawEnd = end < addDays(period.to, 1);
+  const closedMonth = `${new Date(Date.parse(closedBy) - 14 * 3_600_000).toISOString().slice(0, 7)}-01`;
+  const rawTail = rawEnd || end > closedMonth;
+  const readyRanges = [
+    ...(rawStart ? [sql`select * from shop_ready_figures(s.id, s.t0, s.m0)`] : []),
+    ...(rawEnd ? [sql`select * from shop_ready_figures(s.id, s.m1, s.t1)`] : []),
+  ];
+  const collectedRanges = [
+    ...(rawStart
+      ? [
+          sql`select j.collected_at from jobs j
+          where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.m0`,
+        ]
+      : []),
+    ...(rawTail
+      ? [
+          sql`select j.collected_at from jobs j
+          where j.shop_id = s.id and j.collected_at >= s.c1 and j.collected_at < s.t1`,
+        ]
+      : []),
+  ];
+  const unionAll = (parts: SQL[]) => sql.join(parts, sql` union all `);
   const shopsInPeriod = sql`
     with s as (
       select x.id,
         (${period.from}::date::timestamp at time zone x.time_zone) as t0,
         ((${period.to}::date + 1)::timestamp at time zone x.time_zone) as t1,
+        (${first}::date::timestamp at time zone x.time_zone) as m0,
+        (${end}::date::timestamp at time zone x.time_zone) as m1,
+        m.closed_end, (m.closed_end::timestamp at time zone x.time_zone) as c1,
         (${at}::timestamptz at time zone x.time_zone)::date as today
       from shops x
-      where x.id = any(${pgArray(shopIds)}::int[])
+      cross join lateral (
+        select greatest(${first}::date, least(${end}::date,
+          date_trunc('month', ${closedBy}::timestamptz at time zone x.time_zone)::date)) as closed_end
+      ) m
+      ${shopIds ? sql`where x.id = any(${pgArray(shopIds)}::int[])` : sql``}
     )`;
-  type Row = Record<string, number | null>;
+  type Row = Record<string, number | string | null>;
   // Two statements, so that PostgreSQL runs them side by side on two connections (PGlite, with
-  // one, runs them in turn): the ready jobs' figures, and everything else.
-  const [ready, rest] = await Promise.all([
+  // one, runs them in turn): the ready and collected jobs, and everything else.
+  const [jobsRows, rest] = await Promise.all([
     conn.execute<Row>(sql`
     ${shopsInPeriod}
     select s.id as "shopId",
       r.jobs_ready as "jobsReady",
       r.customer_n as "customerN", r.customer_total as "customerTotal",
-      r.customer_q[1] as "customerMedian", r.customer_q[2] as "customerP90",
+      r.customer_minutes as "customerMinutes",
       r.bench_n as "benchN", r.bench_total as "benchTotal",
-      r.bench_q[1] as "benchMedian", r.bench_q[2] as "benchP90",
+      r.bench_turnarounds as "benchTurnarounds",
       r.waiting_minutes as "waitingMinutes", r.promised, r.on_time as "onTime",
       r.revenue_cents as "revenueCents", r.labour_cents as "labourCents",
-      r.bench_minutes as "benchMinutes"
+      r.bench_minutes as "benchMinutes",
+      c.months + c.collected as collected, c.months + c.closed as closed
     from s
     cross join lateral (
-      select count(*)::int as jobs_ready,
-        count(j.customer_turnaround_minutes)::int as customer_n,
-        coalesce(sum(j.customer_turnaround_minutes), 0)::float8 as customer_total,
-        percentile_cont(array[0.5, 0.9]) within group (order by j.customer_turnaround_minutes)
-          as customer_q,
-        count(j.bench_turnaround_minutes)::int as bench_n,
-        coalesce(sum(j.bench_turnaround_minutes), 0)::float8 as bench_total,
-        percentile_cont(array[0.5, 0.9]) within group (order by j.bench_turnaround_minutes)
-          as bench_q,
-        coalesce(sum(j.customer_turnaround_minutes - j.bench_turnaround_minutes), 0)::float8
-          as waiting_minutes,
-        count(j.promised_at)::int as promised,
-        (count(*) filter (where j.ready_at <= j.promised_at))::int as on_time,
-        coalesce(sum(j.labour_cents + j.parts_cents - j.discount_cents), 0)::float8 as revenue_cents,
-        coalesce(sum(j.labour_cents), 0)::float8 as labour_cents,
-        coalesce(sum(j.bench_minutes), 0)::float8 as bench_minutes
-      from jobs j
-      where j.shop_id = s.id and j.ready_at >= s.t0 and j.ready_at < s.t1
+      select coalesce(sum(u.jobs_ready), 0)::int as jobs_ready,
+        coalesce(sum(u.customer_n), 0)::int as customer_n,
+        coalesce(sum(u.customer_total), 0)::float8 as customer_total,
+        string_agg(nullif(u.customer_minutes, ''), '|') as customer_minutes,
+        coalesce(sum(u.bench_n), 0)::int as bench_n,
+        coalesce(sum(u.bench_total), 0)::float8 as bench_total,
+        string_agg(nullif(u.bench_turnarounds, ''), '|') as bench_turnarounds,
+        coalesce(sum(u.waiting_minutes), 0)::float8 as waiting_minutes,
+        coalesce(sum(u.promised), 0)::int as promised,
+        coalesce(sum(u.on_time), 0)::int as on_time,
+        coalesce(sum(u.revenue_cents), 0)::float8 as revenue_cents,
+        coalesce(sum(u.labour_cents), 0)::float8 as labour_cents,
+        coalesce(sum(u.bench_minutes), 0)::float8 as bench_minutes
+      from (
+        select m.jobs_ready, m.customer_n, m.customer_total, m.customer_minutes, m.bench_n,
+          m.bench_total, m.bench_turnarounds, m.waiting_minutes, m.promised, m.on_time,
+          m.revenue_cents, m.labour_cents, m.bench_minutes
+        from shop_month_figures m
+        where m.shop_id = s.id and m.month >= ${first}::date and m.month < ${end}::date
+        ${readyRanges.length > 0 ? sql`union all ${unionAll(readyRanges)}` : sql``}
+      ) u
     ) r
+    cross join lateral (
+      select coalesce(sum(m.collected), 0)::int as months
+      from shop_month_figures m
+      where m.shop_id = s.id and m.month >= ${first}::date and m.month < s.closed_end
+    ) cm
+    cross join lateral (
+      select cm.months, count(*)::int as collected,
+        (count(*) filter (where j.collected_at <= ${closedBy}::timestamptz))::int as closed
+      from (${
+        collectedRanges.length > 0
+          ? unionAll(collectedRanges)
+          : sql`select null::timestamptz as collected_at where false`
+      }) j
+      where j.collected_at <= ${at}::timestamptz
+    ) c
   `),
     conn.execute<Row>(sql`
     ${shopsInPeriod}
     select s.id as "shopId",
-      c.collected, c.closed + b.open_came_back as trials, b.events,
-      b.awaiting_review as "awaitingReview",
+      b.open_came_back as "openCameBack", b.events, b.awaiting_review as "awaitingReview",
       a.rounds as "auditRounds", a.scored as "auditScored", a.failures as "auditFailures",
       a.critical as "auditCritical", a.score_sum as "auditScoreSum",
       a.accepted as "auditAccepted", a.rejected as "auditRejected",
       ca.open as "actionsOpen", ca.overdue as "actionsOverdue"
     from s
     cross join lateral (
-      select count(*)::int as collected,
-        (count(*) filter (where j.collected_at <= ${closedBy}::timestamptz))::int as closed
-      from jobs j
-      where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
-        and j.collected_at <= ${at}::timestamptz
-    ) c
-    cross join lateral (
       select (count(*) filter (where k.came_back and not k.closed))::int as open_came_back,
         (count(*) filter (where k.counted))::int as events,
         (count(*) filter (where k.pending and not k.came_back))::int as awaiting_review
       from (
-        select j.collected_at <= ${closedBy}::timestamptz as closed,
+        select cb.original_collected_at <= ${closedBy}::timestamptz as closed,
           bool_or(cb.status = 'confirmed') as came_back,
           bool_or(cb.status = 'confirmed'
             and cb.attribution = any(${counted}::comeback_attribution[])) as counted,
           bool_or(cb.status = 'open') as pending
         from comebacks cb
-        join jobs j on j.id = cb.original_job_id
-        where cb.original_shop_id = s.id and j.shop_id = s.id
-          and cb.detected_at >= s.t0
-          and cb.detected_at < s.t1 + ${window}::interval
+        where cb.original_shop_id = s.id
+          and cb.original_collected_at >= s.t0 and cb.original_collected_at < s.t1
+          and cb.detected_at >= cb.original_collected_at
+          and cb.detected_at < cb.original_collected_at + ${window}::interval
           and cb.detected_at <= ${at}::timestamptz
-          and j.collected_at >= s.t0 and j.collected_at < s.t1
-          and cb.detected_at >= j.collected_at
-          and cb.detected_at < j.collected_at + ${window}::interval
-        group by j.id, j.collected_at
+        group by cb.original_job_id, cb.original_collected_at
       ) k
     ) b
     cross join lateral (
@@ -198,22 +264,23 @@ export async function aggregateShops(
   `),
   ]);
   const restById = new Map(rest.rows.map((r) => [Number(r.shopId), r]));
-  const rows = ready.rows.map((r) => ({ ...restById.get(Number(r.shopId)), ...r }));
   const out = new Map<number, ShopCounts>();
-  for (const row of rows) {
-    const n = (key: keyof ShopCounts) => Number(row[key] ?? 0);
-    const q = (key: keyof ShopCounts) => (row[key] == null ? null : Number(row[key]));
+  for (const counts of jobsRows.rows) {
+    const row = { ...restById.get(Number(counts.shopId)), ...counts };
+    const n = (key: string) => Number(row[key] ?? 0);
+    const customer = summariseSortedRuns(row.customerMinutes as string | null);
+    const bench = summariseSortedRuns(row.benchTurnarounds as string | null);
     out.set(n('shopId'), {
       shopId: n('shopId'),
       jobsReady: n('jobsReady'),
       customerN: n('customerN'),
       customerTotal: n('customerTotal'),
-      customerMedian: q('customerMedian'),
-      customerP90: q('customerP90'),
+      customerMedian: customer.median,
+      customerP90: customer.p90,
       benchN: n('benchN'),
       benchTotal: n('benchTotal'),
-      benchMedian: q('benchMedian'),
-      benchP90: q('benchP90'),
+      benchMedian: bench.median,
+      benchP90: bench.p90,
       waitingMinutes: n('waitingMinutes'),
       promised: n('promised'),
       onTime: n('onTime'),
@@ -221,7 +288,7 @@ export async function aggregateShops(
       labourCents: n('labourCents'),
       benchMinutes: n('benchMinutes'),
       collected: n('collected'),
-      trials: n('trials'),
+      trials: n('closed') + n('openCameBack'),
       events: n('events'),
       awaitingReview: n('awaitingReview'),
       auditRounds: n('auditRounds'),
@@ -405,30 +472,43 @@ export function assembleFigures(
   return { figures, network: totals(figures) };
 }
 
-/** The regions the caller may filter by: all for the network, their own for a region or shop. */
-async function regionsFor(conn: Db, principal: Principal, shops: readonly NetworkShop[]) {
-  const all = await conn
+/** Every region, by name. */
+function loadRegions(conn: Db) {
+  return conn
     .select({ id: regionsTable.id, name: regionsTable.name })
     .from(regionsTable)
     .orderBy(asc(regionsTable.name));
-  if (principal.scope.kind === 'network') return all;
+}
+
+/** The regions the caller may filter by: all for the network, their own for a region or shop. */
+function regionsFor(
+  all: readonly { id: number; name: string }[],
+  principal: Principal,
+  shops: readonly NetworkShop[],
+) {
+  if (principal.scope.kind === 'network') return [...all];
   const mine = new Set(shops.filter((s) => s.visible).map((s) => s.region.id));
   if (principal.scope.kind === 'region') mine.add(principal.scope.regionId);
   return all.filter((r) => mine.has(r.id));
 }
 
-/** Loads and computes every shop's figures; shared by the network view and the shop page. */
+/**
+ * Loads and computes every shop's figures; shared by the network view and the shop page. The
+ * reads go out together (PostgreSQL serves them on separate connections): the aggregate and the
+ * severities cover every shop of the network, as the shop list does.
+ */
 export async function computeNetwork(
   conn: Db,
   principal: Principal,
   period: PeriodQuery,
   asOf: Date,
 ) {
-  const [settings, shops] = await Promise.all([loadSettings(conn), loadShops(conn, principal)]);
-  const ids = shops.map((s) => s.id);
-  const [counts, severities] = await Promise.all([
-    aggregateShops(conn, ids, period, asOf, settings),
-    shopSeverities(conn, ids),
+  const settingsRead = loadSettings(conn);
+  const [settings, shops, counts, severities] = await Promise.all([
+    settingsRead,
+    loadShops(conn, principal),
+    settingsRead.then((used) => aggregateShops(conn, null, period, asOf, used)),
+    shopSeverities(conn, null),
   ]);
   return { settings, shops, ...assembleFigures(shops, counts, severities) };
 }
@@ -446,8 +526,11 @@ export async function networkComparison(
 ): Promise<NetworkComparisonResult> {
   const { conn, asOf } = await resolveContext(ctx);
   const period = { from: query.from, to: query.to };
-  const net = await computeNetwork(conn, principal, period, asOf);
-  const regions = await regionsFor(conn, principal, net.shops);
+  const [net, allRegions] = await Promise.all([
+    computeNetwork(conn, principal, period, asOf),
+    loadRegions(conn),
+  ]);
+  const regions = regionsFor(allRegions, principal, net.shops);
   let region: { id: number; name: string } | null = null;
   if (query.region !== undefined) {
     region = regions.find((r) => r.id === query.region) ?? null;
