@@ -198,6 +198,9 @@ export async function generateNetwork(db: Db, options: GenerateOptions) {
     });
   }
 
+  // The derived figures' triggers would recompute whole shop-months after every batch of random
+  // jobs: off while loading, then one rebuild from the loaded jobs (as the demo seed does).
+  await setFigureTriggers(db, false);
   const customers = Math.max(1, Math.round(options.jobs / 5));
   await db.execute(sql`
     insert into customers (id, shop_id, name)
@@ -414,7 +417,18 @@ export async function generateNetwork(db: Db, options: GenerateOptions) {
       sql`select setval(pg_get_serial_sequence(${table}, 'id'), (select max(id) from ${sql.identifier(table)}))`,
     );
   }
+  await setFigureTriggers(db, true);
+  await db.execute(sql`select rebuild_shop_month_figures()`);
   // Statistics for the planner and the visibility map for index-only scans (PGlite has no autovacuum).
   await db.execute(sql`vacuum analyze`);
   return { jobs: nextId - 1, owner: owner!.id };
+}
+
+/** Switches the triggers of migration 0003 that keep the derived figures on or off. */
+async function setFigureTriggers(db: Db, on: boolean) {
+  const verb = sql.raw(on ? 'enable' : 'disable');
+  for (const trigger of ['jobs_insert_figures', 'jobs_update_figures', 'jobs_delete_figures']) {
+    await db.execute(sql`alter table jobs ${verb} trigger ${sql.identifier(trigger)}`);
+  }
+  await db.execute(sql`alter table comebacks ${verb} trigger comebacks_copy_collected_at`);
 }

@@ -151,6 +151,13 @@ describe('CSV import of past jobs', () => {
     expect(rows[0]!.pages).toBeGreaterThan(10);
     expect(rows[0]!.visible).toBe(rows[0]!.pages);
     expect(rows[0]!.estimate).toBe(3000);
+    // The monthly figures the network view reads were kept up by the triggers during the load.
+    const { rows: months } = await db().execute<{ ready: number; jobs: number }>(
+      sql`select (select sum(jobs_ready)::int from shop_month_figures) as ready,
+        (select count(*)::int from jobs where ready_at is not null) as jobs`,
+    );
+    expect(months[0]!.ready).toBe(months[0]!.jobs);
+    expect(months[0]!.jobs).toBeGreaterThan(0);
   }, 30_000);
 
   it('imports nothing when one row is bad, and lists that row and column', async () => {

@@ -8,6 +8,7 @@ import {
   jobs,
   reels,
   serviceStandards,
+  shopMonthFigures,
   shops,
   users,
   type NewJobEvent,
@@ -494,15 +495,16 @@ export async function runImport(
 }
 
 /**
- * After a bulk load, planner statistics and the visibility map for the tables it wrote, so the
- * network view's index-only scans skip the heap: PGlite has no autovacuum, and a server's comes
- * later. VACUUM cannot run in the transaction. The import has committed by now, so a failure here
- * is logged rather than reported as a failed import.
+ * After a bulk load, planner statistics and the visibility map for the tables it wrote (the
+ * monthly figures its triggers rewrote among them), so the network view's index-only scans skip
+ * the heap: PGlite has no autovacuum, and a server's comes later. VACUUM cannot run in the
+ * transaction. The import has committed by now, so a failure here is logged rather than reported
+ * as a failed import.
  */
 async function refreshAfterBulkLoad(conn: Awaited<ReturnType<typeof db>>) {
   try {
     await conn.execute(
-      sql`vacuum (analyze) ${jobs}, ${jobEvents}, ${benchSessions}, ${customers}, ${reels}`,
+      sql`vacuum (analyze) ${jobs}, ${jobEvents}, ${benchSessions}, ${customers}, ${reels}, ${shopMonthFigures}`,
     );
   } catch (error) {
     console.warn('[import] refreshing statistics after the import failed:', error);
