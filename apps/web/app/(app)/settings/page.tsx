@@ -40,7 +40,7 @@ export default async function SettingsPage() {
         </Panel>
         <Panel
           title="Shops"
-          description="Each shop's region and time zone; all times at a shop are shown in its zone."
+          description="Each shop's region, time zone and opening hours; all times at a shop are shown in its zone, and turnaround counts the hours it is open."
         >
           <div className="overflow-x-auto">
             <table className="w-full min-w-[36rem] text-left">
@@ -53,8 +53,11 @@ export default async function SettingsPage() {
                   <th scope="col" className="py-2 pr-4 font-medium">
                     Region
                   </th>
-                  <th scope="col" className="py-2 font-medium">
+                  <th scope="col" className="py-2 pr-4 font-medium">
                     Time zone
+                  </th>
+                  <th scope="col" className="py-2 font-medium">
+                    Opening hours
                   </th>
                 </tr>
               </thead>
@@ -65,7 +68,16 @@ export default async function SettingsPage() {
                       {s.name}
                     </th>
                     <td className="py-3 pr-4">{s.region.name}</td>
-                    <td className="py-3">{s.timeZone}</td>
+                    <td className="py-3 pr-4">{s.timeZone}</td>
+                    <td className="py-3">
+                      <Link
+                        href={`/settings/shops/${s.id}`}
+                        className="inline-flex min-h-11 items-center font-medium text-sea-700 underline underline-offset-2 hover:text-sea-900"
+                      >
+                        Hours and closed dates
+                        <span className="sr-only"> of {s.name}</span>
+                      </Link>
+                    </td>
                   </tr>
                 ))}
               </tbody>

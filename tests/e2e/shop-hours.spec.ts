@@ -1,0 +1,56 @@
+import { expect, test } from '@playwright/test';
+import { screenshotPath, storageState } from './accounts';
+import { expectAccessible } from './axe';
+
+test.use({ storageState: storageState('owner') });
+
+test('owner – edits a shop’s opening hours: a wrong span is named, a saved change recomputes the finished jobs’ turnaround', async ({
+  page,
+}) => {
+  await page.goto('/settings');
+  await page
+    .getByRole('main')
+    .getByRole('link', { name: 'Hours and closed dates of Marram Point' })
+    .click();
+  await expect(
+    page.getByRole('heading', { level: 1, name: 'Marram Point: opening hours' }),
+  ).toBeVisible();
+  await expectAccessible(page);
+  const monday = page.getByLabel('Monday', { exact: true });
+  const before = await monday.inputValue();
+  expect(before).toMatch(/^\d\d:\d\d–\d\d:\d\d/);
+  const dates = page.getByLabel('Closed dates', { exact: true });
+  const closedBefore = await dates.inputValue();
+  await page.screenshot({ path: screenshotPath('shop-hours-1280x900'), fullPage: true });
+
+  // A closing time before the opening time is refused before anything is sent.
+  await monday.fill('17:00–09:00');
+  await page.getByRole('button', { name: 'Save the opening hours' }).click();
+  await expect(monday).toHaveAttribute('aria-invalid', 'true');
+  await expect(
+    page.getByText('17:00–09:00: Closing time must be after opening time.'),
+  ).toBeVisible();
+  await monday.fill(before);
+
+  // A closed day far ahead changes no finished job's turnaround, but every one is computed again.
+  await dates.fill(`${closedBefore}\n2027-12-27`.trim());
+  await page.getByRole('button', { name: 'Save the opening hours' }).click();
+  const done = page.getByText(
+    /^Saved\. Turnaround computed again for [\d,]+ finished jobs; 0 changed\.$/,
+  );
+  await expect(done).toBeVisible();
+  const recomputed = Number((await done.innerText()).match(/for ([\d,]+)/)![1]!.replace(/,/g, ''));
+  expect(recomputed).toBeGreaterThan(100);
+
+  const api = (await (
+    await page.request.get(page.url().replace('/settings/shops/', '/api/shops/') + '/calendar')
+  ).json()) as { closedDates: string[] };
+  expect(api.closedDates).toContain('2027-12-27');
+
+  // Put the dates back as they were.
+  await page.reload();
+  await dates.fill(closedBefore);
+  await page.getByRole('button', { name: 'Save the opening hours' }).click();
+  await expect(page.getByText(/^Saved\./)).toBeVisible();
+  await expectAccessible(page);
+});
