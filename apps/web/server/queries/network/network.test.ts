@@ -500,75 +500,94 @@ describe('network comparison – figures worked out by hand', () => {
 });
 
 describe('network comparison – the API equals the metrics engine on the same rows', () => {
-  it('owner – every shop figure is what @reelwright/metrics makes of the raw rows', async () => {
-    const r = await networkComparison(who.owner, APRIL, ctx());
-    const ready = await db().execute<Record<string, unknown>>(sql`
+  // Whole months (read from the monthly figures), days on either side of whole months and a
+  // period inside one month (read from the jobs), and an as-of date that leaves some warranty
+  // windows open (those collections counted from the jobs).
+  it.each([
+    ['April', APRIL, AS_OF],
+    ['17 March – 9 May', { from: '2026-03-17', to: '2026-05-09' }, AS_OF],
+    ['6 – 23 April', { from: '2026-04-06', to: '2026-04-23' }, AS_OF],
+    [
+      'March – May, as of 15 July',
+      { from: '2026-03-01', to: '2026-05-31' },
+      at('2026-07-15T12:00:00Z'),
+    ],
+  ])(
+    'owner – every shop figure is what @reelwright/metrics makes of the raw rows: %s',
+    async (_, period, asOf) => {
+      const r = await networkComparison(who.owner, period, { db: db(), asOf });
+      expect(r.network.jobsReady).toBeGreaterThan(0);
+      const after = new Date(Date.parse(`${period.to}T00:00:00Z`) + 86_400_000)
+        .toISOString()
+        .slice(0, 10);
+      const ready = await db().execute<Record<string, unknown>>(sql`
       select j.shop_id, s.labour_rate_cents, j.customer_turnaround_minutes, j.bench_turnaround_minutes,
         j.ready_at, j.promised_at, j.labour_cents, j.parts_cents, j.discount_cents, j.bench_minutes
       from jobs j join shops s on s.id = j.shop_id
-      where j.ready_at >= ('2026-04-01'::timestamp at time zone s.time_zone)
-        and j.ready_at < ('2026-05-01'::timestamp at time zone s.time_zone)`);
-    const collected = await db().execute<Record<string, unknown>>(sql`
+      where j.ready_at >= (${period.from}::timestamp at time zone s.time_zone)
+        and j.ready_at < (${after}::timestamp at time zone s.time_zone)`);
+      const collected = await db().execute<Record<string, unknown>>(sql`
       select j.id, j.shop_id, j.collected_at from jobs j join shops s on s.id = j.shop_id
-      where j.collected_at >= ('2026-04-01'::timestamp at time zone s.time_zone)
-        and j.collected_at < ('2026-05-01'::timestamp at time zone s.time_zone)`);
-    const backs = await db().execute<Record<string, unknown>>(sql`
+      where j.collected_at >= (${period.from}::timestamp at time zone s.time_zone)
+        and j.collected_at < (${after}::timestamp at time zone s.time_zone)`);
+      const backs = await db().execute<Record<string, unknown>>(sql`
       select original_job_id, attribution::text as attribution, detected_at from comebacks
       where status = 'confirmed' and attribution is not null`);
-    const counts = r.shops.map((s) => {
-      const rows = ready.rows.filter((x) => Number(x.shop_id) === s.shop.id);
-      const num = (x: unknown) => Number(x ?? 0);
-      const customer = turnaroundSummary(rows.map((x) => num(x.customer_turnaround_minutes)));
-      const bench = turnaroundSummary(rows.map((x) => num(x.bench_turnaround_minutes)));
-      expect(s.customerTurnaround.count, s.shop.name).toBe(customer.count);
-      same(s.customerTurnaround.median, customer.median, s.shop.name);
-      same(s.customerTurnaround.p90, customer.p90, s.shop.name);
-      same(s.benchTurnaround.median, bench.median);
-      same(s.benchTurnaround.p90, bench.p90);
-      expect(s.onTime).toEqual(
-        onTimeShare(
-          rows.map((x) => ({ readyAt: toDate(x.ready_at), promisedAt: toDate(x.promised_at) })),
-        ),
-      );
-      const money = rows.map((x) => ({
-        revenueCents: num(x.labour_cents) + num(x.parts_cents) - num(x.discount_cents),
-        labourCents: num(x.labour_cents),
-        benchMinutes: num(x.bench_minutes),
-      }));
-      expect(s.revenue.perBenchHourCents).toEqual(revenuePerBenchHour(money));
-      const realisation = rateRealisation(money, s.shop.labourRateCents);
-      expect(s.revenue.labourPerBenchHourCents).toEqual(realisation.labourPerBenchHour);
-      expect(s.revenue.realisation).toEqual(realisation.realisation);
-      const rate = comebackRate(
-        collected.rows
-          .filter((x) => Number(x.shop_id) === s.shop.id)
-          .map((x) => ({
-            collectedAt: toDate(x.collected_at),
-            comebacks: backs.rows
-              .filter((b) => Number(b.original_job_id) === Number(x.id))
-              .map((b) => ({
-                attribution: b.attribution as ComebackAttribution,
-                reportedAt: toDate(b.detected_at)!,
-              })),
-          })),
-        { asOf: AS_OF, warrantyDays: 90 },
-      );
-      expect({ events: s.comebacks.events, trials: s.comebacks.trials }).toEqual({
-        events: rate.events,
-        trials: rate.trials,
+      const counts = r.shops.map((s) => {
+        const rows = ready.rows.filter((x) => Number(x.shop_id) === s.shop.id);
+        const num = (x: unknown) => Number(x ?? 0);
+        const customer = turnaroundSummary(rows.map((x) => num(x.customer_turnaround_minutes)));
+        const bench = turnaroundSummary(rows.map((x) => num(x.bench_turnaround_minutes)));
+        expect(s.customerTurnaround.count, s.shop.name).toBe(customer.count);
+        same(s.customerTurnaround.median, customer.median, s.shop.name);
+        same(s.customerTurnaround.p90, customer.p90, s.shop.name);
+        same(s.benchTurnaround.median, bench.median);
+        same(s.benchTurnaround.p90, bench.p90);
+        expect(s.onTime).toEqual(
+          onTimeShare(
+            rows.map((x) => ({ readyAt: toDate(x.ready_at), promisedAt: toDate(x.promised_at) })),
+          ),
+        );
+        const money = rows.map((x) => ({
+          revenueCents: num(x.labour_cents) + num(x.parts_cents) - num(x.discount_cents),
+          labourCents: num(x.labour_cents),
+          benchMinutes: num(x.bench_minutes),
+        }));
+        expect(s.revenue.perBenchHourCents).toEqual(revenuePerBenchHour(money));
+        const realisation = rateRealisation(money, s.shop.labourRateCents);
+        expect(s.revenue.labourPerBenchHourCents).toEqual(realisation.labourPerBenchHour);
+        expect(s.revenue.realisation).toEqual(realisation.realisation);
+        const rate = comebackRate(
+          collected.rows
+            .filter((x) => Number(x.shop_id) === s.shop.id)
+            .map((x) => ({
+              collectedAt: toDate(x.collected_at),
+              comebacks: backs.rows
+                .filter((b) => Number(b.original_job_id) === Number(x.id))
+                .map((b) => ({
+                  attribution: b.attribution as ComebackAttribution,
+                  reportedAt: toDate(b.detected_at)!,
+                })),
+            })),
+          { asOf, warrantyDays: 90 },
+        );
+        expect({ events: s.comebacks.events, trials: s.comebacks.trials }).toEqual({
+          events: rate.events,
+          trials: rate.trials,
+        });
+        expect(s.comebacks.interval).toEqual(rate.interval);
+        return { shopId: String(s.shop.id), events: rate.events, trials: rate.trials };
       });
-      expect(s.comebacks.interval).toEqual(rate.interval);
-      return { shopId: String(s.shop.id), events: rate.events, trials: rate.trials };
-    });
-    const engine = compareShops(counts);
-    expect(r.network.comebacks.rate).toBe(engine.networkRate);
-    for (const [i, s] of r.shops.entries()) {
-      const e = engine.shops[i]!;
-      expect(s.comebacks.funnel95).toEqual(e.funnel95);
-      expect(s.comebacks.funnel998).toEqual(e.funnel998);
-      expect(s.comebacks.band).toBe(e.trials === 0 ? null : e.band);
-    }
-  });
+      const engine = compareShops(counts);
+      expect(r.network.comebacks.rate).toBe(engine.networkRate);
+      for (const [i, s] of r.shops.entries()) {
+        const e = engine.shops[i]!;
+        expect(s.comebacks.funnel95).toEqual(e.funnel95);
+        expect(s.comebacks.funnel998).toEqual(e.funnel998);
+        expect(s.comebacks.band).toBe(e.trials === 0 ? null : e.band);
+      }
+    },
+  );
 
   it('owner – the shop page histogram and monthly trends agree with the comparison', async () => {
     const m = await shopMetrics(who.owner, ids.a, APRIL, ctx());
