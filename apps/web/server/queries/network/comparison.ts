@@ -115,9 +115,10 @@ export async function aggregateShops(
   const closedBy = new Date(asOf.getTime() - hours * 3_600_000).toISOString();
   const counted = pgArray(settings.countedAttributions);
   const { first, end } = wholeMonths(period);
-  // The parts of the period outside whole months, and whole months that may not all be closed
-  // (in every zone: the instant's local date is at least its UTC date less 14 hours'), are read
-  // from the jobs; an aligned and closed period (a past month, quarter or season) needs none.
+  // The days outside whole months are read from the jobs, and so are the collections of whole
+  // months whose warranty windows may not all have closed in every shop's zone (the month is
+  // taken 14 hours behind UTC, more than any zone lags); a past month, quarter or season reads
+  // neither.
   const rawStart = period.from < first;
   const rawEnd = end < addDays(period.to, 1);
   const closedMonth = `${new Date(Date.parse(closedBy) - 14 * 3_600_000).toISOString().slice(0, 7)}-01`;
