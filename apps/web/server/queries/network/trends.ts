@@ -64,7 +64,11 @@ async function monthlyRows(
     const counted = `{${settings.countedAttributions.join(',')}}`;
     const closed = sql`j.collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz`;
     const month = sql`to_char(j.collected_at at time zone s.time_zone, 'YYYY-MM')`;
-    // As in the comparison: closed windows counted over the index, returns from the comebacks.
+    // The same for a comeback, from the original job's collection time it carries.
+    const backClosed = sql`cb.original_collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz`;
+    const backMonth = sql`to_char(cb.original_collected_at at time zone s.time_zone, 'YYYY-MM')`;
+    // As in the comparison: closed windows counted over the index, returns from the comebacks'
+    // own index (no join to the jobs).
     const { rows } = await conn.execute<Row>(sql`
       with s as (${bounds(ids, period)})
       select s.id as "shopId", m.month, m.trials, m.events, m.open
@@ -85,20 +89,17 @@ async function monthlyRows(
             count(*) filter (where k.came_back and not k.closed) as open_came_back,
             count(*) filter (where k.counted) as events
           from (
-            select ${month} as month, ${closed} as closed,
+            select ${backMonth} as month, ${backClosed} as closed,
               bool_or(cb.status = 'confirmed') as came_back,
               bool_or(cb.status = 'confirmed'
                 and cb.attribution = any(${counted}::comeback_attribution[])) as counted
             from comebacks cb
-            join jobs j on j.id = cb.original_job_id
-            where cb.original_shop_id = s.id and j.shop_id = s.id
-              and cb.detected_at >= s.t0
-              and cb.detected_at < s.t1 + ${hours} * interval '1 hour'
+            where cb.original_shop_id = s.id
+              and cb.original_collected_at >= s.t0 and cb.original_collected_at < s.t1
+              and cb.detected_at >= cb.original_collected_at
+              and cb.detected_at < cb.original_collected_at + ${hours} * interval '1 hour'
               and cb.detected_at <= ${at}::timestamptz
-              and j.collected_at >= s.t0 and j.collected_at < s.t1
-              and cb.detected_at >= j.collected_at
-              and cb.detected_at < j.collected_at + ${hours} * interval '1 hour'
-            group by j.id, j.collected_at
+            group by cb.original_job_id, cb.original_collected_at
           ) k
           group by k.month
         ) b on b.month = c.month
