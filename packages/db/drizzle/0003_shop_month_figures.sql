@@ -68,10 +68,14 @@ $$;
 --> statement-breakpoint
 -- Recomputes the shop_month_figures rows of the months holding the given instants from the jobs
 -- table: the jobs that became ready in each month and those collected in it. A month with
--- neither has no row.
+-- neither has no row. Transactions recomputing the same shop's months take turns (a lock per
+-- shop, held to commit, taken in shop order), so that the later one counts the earlier one's
+-- jobs and neither inserts a row the other has just written.
 CREATE FUNCTION refresh_shop_month_figures(p_shops integer[], p_instants timestamptz[])
 RETURNS void LANGUAGE plpgsql AS $$
 BEGIN
+  PERFORM pg_advisory_xact_lock(20260301, x.shop_id)
+  FROM (SELECT DISTINCT u.shop_id FROM unnest(p_shops) AS u(shop_id) ORDER BY 1) x;
   DELETE FROM shop_month_figures f USING shop_months_of(p_shops, p_instants) k
   WHERE f.shop_id = k.shop_id AND f.month = k.month;
   INSERT INTO shop_month_figures

@@ -186,6 +186,29 @@ describe(`derived monthly figures (${TARGET})`, () => {
     await agree();
   });
 
+  // PGlite has one connection; on a server two transactions can write the same shop-month.
+  it.runIf(TARGET === 'pg')(
+    'let two transactions writing one shop-month at once both commit, and count both',
+    async () => {
+      let updated!: () => void;
+      const firstUpdated = new Promise<void>((r) => (updated = r));
+      let release!: () => void;
+      const held = new Promise<void>((r) => (release = r));
+      const first = db.transaction(async (tx) => {
+        await tx.execute(sql`update jobs set labour_cents = labour_cents + 100 where id = 2`);
+        updated();
+        await held;
+      });
+      await firstUpdated;
+      // Job 3 is ready in the same shop and month as job 2; its update waits for the first
+      // transaction to commit, then recomputes the month with both changes.
+      const second = db.execute(sql`update jobs set parts_cents = parts_cents + 50 where id = 3`);
+      setTimeout(release, 300);
+      await Promise.all([first, second]);
+      await agree();
+    },
+  );
+
   it('refuses a turnaround too long for the figures’ seven digits', async () => {
     const error: unknown = await db
       .execute(sql`update jobs set customer_turnaround_minutes = 10000000 where id = 1`)
