@@ -34,6 +34,12 @@ test('owner – edits a shop’s opening hours: a wrong span is named, a saved c
   ).toBeVisible();
   await tuesday.fill(before);
 
+  // A date that does not exist passes the form's shape check; the server refuses it, by name.
+  await dates.fill(`${closedBefore}\n2027-02-30`.trim());
+  await page.getByRole('button', { name: 'Save the opening hours' }).click();
+  await expect(page.getByText('2027-02-30: Not a calendar date')).toBeVisible();
+  await expect(dates).toHaveAttribute('aria-invalid', 'true');
+
   // A closed day far ahead changes no finished job's turnaround, but every one is computed again.
   await dates.fill(`${closedBefore}\n2027-12-27`.trim());
   await page.getByRole('button', { name: 'Save the opening hours' }).click();

@@ -38,11 +38,25 @@ export function ShopCalendarForm({ initial }: { initial: ShopCalendarView }) {
       }),
   });
 
+  // The API's field errors, each under the field it belongs to: a span under its weekday, a date
+  // under the closed dates, named.
   const server: Record<string, string> = {};
   if (save.error instanceof ProblemError)
-    for (const e of save.error.problem.errors ?? [])
-      server[e.field.replace(/^body\./, '').replace(/^weekly\.(\w+)\..*$/, '$1')] ??= e.message;
+    for (const e of save.error.problem.errors ?? []) {
+      const field = e.field.replace(/^body\./, '');
+      const date = /^closedDates\.(\d+)$/.exec(field);
+      if (date) {
+        const value = save.variables?.closedDates[Number(date[1])];
+        server.closedDates ??= value ? `${value}: ${e.message}` : e.message;
+      } else
+        server[field.replace(/^(weekly\.\w+)\..*$/, '$1').replace(/^weekly\./, '')] ??= e.message;
+    }
   const all = { ...server, ...errors };
+  // Anything the API refused that belongs to no field on the page.
+  const onPage = new Set<string>([...WEEKDAYS, 'closedDates']);
+  const stray = Object.entries(server)
+    .filter(([k]) => !onPage.has(k))
+    .map(([, message]) => message);
 
   const submit = (event: React.FormEvent) => {
     event.preventDefault();
@@ -136,9 +150,9 @@ export function ShopCalendarForm({ initial }: { initial: ShopCalendarView }) {
         )}
       </Panel>
       <SaveBar label="Save the opening hours" pending={save.isPending} done={done}>
-        {save.isError && Object.keys(server).length === 0 && (
+        {save.isError && (stray.length > 0 || Object.keys(server).length === 0) && (
           <p role="alert" className="font-medium text-brick-700">
-            Not saved: {save.error.message}
+            Not saved: {stray.length > 0 ? stray.join(' ') : save.error.message}
           </p>
         )}
       </SaveBar>
