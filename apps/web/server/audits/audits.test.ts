@@ -1,5 +1,4 @@
 import { and, eq } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   activityLog,
   auditAnswers,
@@ -13,6 +12,7 @@ import { drawSample } from '@reelwright/metrics';
 import { NextRequest } from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { sampleAnswersInput, type SampleAnswersInput } from '~/lib/validators/audits';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { ApiError } from '../errors';
 import type { Principal } from '../principal';
 import {
@@ -31,18 +31,10 @@ import { planRound, previewRound, type PlannedRound } from './plan';
 import { addDays, localDayStart, localToday, planFor } from './sampling';
 import { saveSample } from './score';
 
-const state = vi.hoisted(() => ({
-  handle: null as DbHandle | null,
-  principal: null as Principal | null,
-}));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
-vi.mock('~/server/session', () => ({
-  getPrincipal: async () => state.principal,
-  requirePagePrincipal: async () => state.principal,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
+vi.mock('~/server/session', () =>
+  import('~/server/testing/memory-db').then((m) => m.sessionModule),
+);
 
 let net: AuditNetwork;
 const db = () => state.handle!.db;
@@ -54,9 +46,8 @@ let auditorA: Principal;
 let auditorB: Principal;
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildAuditNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildAuditNetwork(state.handle!.db);
   owner = net.principal('owner@a.test');
   north = net.principal('north@a.test');
   south = net.principal('south@a.test');
@@ -66,7 +57,7 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 /** `count` jobs ready at noon New York time on consecutive days from `from`, cycling through `days`. */

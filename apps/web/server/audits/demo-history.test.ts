@@ -1,4 +1,3 @@
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   auditRounds,
   auditSamples,
@@ -8,23 +7,19 @@ import {
 } from '@reelwright/db/schema';
 import { eq, inArray } from '@reelwright/db';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { addDemoAuditHistory, previousMonths } from './demo-history';
 import { buildAuditNetwork, newYorkNoon, type AuditNetwork } from './fixture';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 let net: AuditNetwork;
 let duneJobs: number[];
 const db = () => state.handle!.db;
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildAuditNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildAuditNetwork(state.handle!.db);
   // Dune's October jobs follow a standard with drag steps, none of them ticked.
   const [standard] = await db()
     .insert(serviceStandards)
@@ -58,7 +53,7 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 describe('demo audit history', () => {

@@ -1,5 +1,4 @@
 import { asc, eq } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   activityLog,
   benchSessions,
@@ -14,6 +13,7 @@ import { NextRequest } from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { JOB_STATES, type JobState } from '~/lib/labels';
 import { checkInInput, NEXT_STATES, type CheckInInput } from '~/lib/validators/jobs';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { ApiError } from '../errors';
 import type { Principal } from '../principal';
 import { getJobDetail } from '../queries/bench';
@@ -23,30 +23,21 @@ import { buildNetwork, type Network } from './fixture';
 import { patchJob, transitionJob, waitingSpans } from './jobs';
 import { addPart, deletePart, recordBenchTime, setChecklist } from './work';
 
-const state = vi.hoisted(() => ({
-  handle: null as DbHandle | null,
-  principal: null as Principal | null,
-}));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
-vi.mock('~/server/session', () => ({
-  getPrincipal: async () => state.principal,
-  requirePagePrincipal: async () => state.principal,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
+vi.mock('~/server/session', () =>
+  import('~/server/testing/memory-db').then((m) => m.sessionModule),
+);
 
 let net: Network;
 const db = () => state.handle!.db;
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildNetwork(state.handle!.db);
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 // Monday 2 November 2026, after the autumn clock change: New York is UTC−5.

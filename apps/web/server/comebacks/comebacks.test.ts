@@ -1,5 +1,4 @@
 import { and, asc, eq } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   activityLog,
   benchSessions,
@@ -17,6 +16,7 @@ import {
 import { NextRequest } from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { comebackPatch, comebackSettingsInput } from '~/lib/validators/comebacks';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { buildNetwork, type Network } from '../bench/fixture';
 import { checkIn } from '../bench/check-in';
 import { ApiError } from '../errors';
@@ -26,18 +26,10 @@ import { linkComeback } from './detect';
 import { updateComeback } from './review';
 import { saveComebackSettings } from './settings';
 
-const state = vi.hoisted(() => ({
-  handle: null as DbHandle | null,
-  principal: null as Principal | null,
-}));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
-vi.mock('~/server/session', () => ({
-  getPrincipal: async () => state.principal,
-  requirePagePrincipal: async () => state.principal,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
+vi.mock('~/server/session', () =>
+  import('~/server/testing/memory-db').then((m) => m.sessionModule),
+);
 vi.mock('~/env', async (importOriginal) => {
   const original = await importOriginal<{ env: Record<string, unknown> }>();
   return { env: { ...original.env, APP_BASE_URL: 'https://reelwright.test' } };
@@ -53,9 +45,8 @@ let kelpLead: Principal;
 const db = () => state.handle!.db;
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildNetwork(state.handle!.db);
   await db().insert(networkSettings).values({ id: 1, networkName: 'Test network' });
   await db()
     .insert(rootCauses)
@@ -78,7 +69,7 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 let serial = 0;

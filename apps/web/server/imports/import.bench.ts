@@ -1,30 +1,25 @@
 // pnpm --filter @reelwright/web exec vitest bench --run server/imports
 // Times a CSV import of past jobs on in-memory PGlite: checking the file, then storing it.
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { afterAll, beforeAll, bench, describe, vi } from 'vitest';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { buildImportNetwork, identityMapping, importRows, toCsv } from './fixture';
 import { prepareImport, runImport } from './jobs';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 let net: Awaited<ReturnType<typeof buildImportNetwork>>;
 const files = new Map<number, Uint8Array>();
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildImportNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildImportNetwork(state.handle!.db);
   for (const n of [5_000, 50_000]) {
     files.set(n, new TextEncoder().encode(toCsv(importRows(n, `B${n}`))));
   }
 }, 120_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 async function importOnce(n: number) {

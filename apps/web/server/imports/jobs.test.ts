@@ -1,5 +1,4 @@
 import { asc, count, eq, sql } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   activityLog,
   benchSessions,
@@ -11,16 +10,13 @@ import {
 } from '@reelwright/db/schema';
 import { jobTurnaround } from '@reelwright/metrics';
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { ApiError } from '../errors';
 import { shopCalendar } from '../bench/calendar';
 import { buildImportNetwork, identityMapping, importRows, toCsv } from './fixture';
 import { prepareImport, runImport } from './jobs';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 let net: Awaited<ReturnType<typeof buildImportNetwork>>;
 const db = () => state.handle!.db;
@@ -39,8 +35,7 @@ async function importCsv(csv: string, fileName?: string) {
 }
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
+  await openMemoryDb();
 }, 60_000);
 
 beforeEach(async () => {
@@ -64,7 +59,7 @@ beforeEach(async () => {
 });
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 describe('CSV import of past jobs', () => {

@@ -1,4 +1,3 @@
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { NextRequest } from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import * as monthRoute from '~/app/api/month-close/[month]/route';
@@ -9,29 +8,23 @@ import * as batchRoute from '~/app/api/reminders/batches/[id]/route';
 import * as batchesRoute from '~/app/api/reminders/batches/route';
 import * as dueRoute from '~/app/api/reminders/due/route';
 import * as sendRoute from '~/app/api/reminders/send/route';
-import type { Principal } from '../principal';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { buildMonthCloseNetwork } from './test-network';
 
-const state = vi.hoisted(() => ({
-  handle: null as DbHandle | null,
-  principal: null as Principal | null,
-}));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
-vi.mock('~/server/session', () => ({ getPrincipal: async () => state.principal }));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
+vi.mock('~/server/session', () =>
+  import('~/server/testing/memory-db').then((m) => m.sessionModule),
+);
 
 let net: Awaited<ReturnType<typeof buildMonthCloseNetwork>>;
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildMonthCloseNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildMonthCloseNetwork(state.handle!.db);
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 type Handler = (

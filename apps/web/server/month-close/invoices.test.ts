@@ -1,5 +1,4 @@
 import { eq } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { paymentEvents, royaltyInvoices, shops } from '@reelwright/db/schema';
 import { NextRequest } from 'next/server';
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -8,17 +7,14 @@ import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { POST as webhookRoute } from '~/app/api/webhooks/payments/route';
 import { env } from '~/env';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { createStripe } from '../payments/stripe';
 import { getMonthClose } from '../queries/month-close';
 import { closeMonth } from './close';
 import { invoiceKey, issueRoyaltyInvoices } from './invoices';
 import { buildMonthCloseNetwork } from './test-network';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 const MONTH = '2026-11';
 const WEBHOOK_SECRET = 'whsec_reelwright_unit_tests';
@@ -45,15 +41,14 @@ beforeAll(async () => {
     });
   });
   stripe = createStripe({ apiBase: fakeUrl, secretKey: 'sk_test_unit' });
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildMonthCloseNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildMonthCloseNetwork(state.handle!.db);
   env.STRIPE_WEBHOOK_SECRET = WEBHOOK_SECRET;
 }, 60_000);
 
 afterAll(async () => {
   fake?.kill();
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 describe('royalty invoices', () => {

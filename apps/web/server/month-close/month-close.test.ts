@@ -1,19 +1,15 @@
 import { eq } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { jobs } from '@reelwright/db/schema';
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { getMonthClose, monthCloseCsv, type MonthCloseReport } from '../queries/month-close';
 import { closeMonth, reopenMonth } from './close';
 import { CSV_COLUMNS, csvLine, neutralise, quote } from './csv';
 import type { TotalsFigures } from './figures';
 import { buildMonthCloseNetwork } from './test-network';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 let net: Awaited<ReturnType<typeof buildMonthCloseNetwork>>;
 const MONTH = '2026-11';
@@ -21,13 +17,12 @@ const MONTH = '2026-11';
 const NOW = new Date('2026-12-02T12:00:00Z');
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildMonthCloseNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildMonthCloseNetwork(state.handle!.db);
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 async function csvOf(...args: Parameters<typeof monthCloseCsv>) {

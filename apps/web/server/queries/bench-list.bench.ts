@@ -1,37 +1,32 @@
 // The bench list against 100,000 jobs in one shop, on in-memory PGlite. Prints timings; asserts
 // nothing. Run: pnpm --filter @reelwright/web exec vitest bench --run server/queries/bench-list.bench.ts
 import { sql } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { bench, describe, vi } from 'vitest';
 import { jobListQuery, type JobListParams } from '~/lib/validators/jobs';
+import { openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { buildNetwork } from '../bench/fixture';
 import { listJobs } from './bench';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 const JOBS = 100_000;
 const CUSTOMERS = 20_000;
 
-state.handle = await openDb({ dataDir: 'memory://' });
-await migrate(state.handle.db, state.handle.driver);
-const net = await buildNetwork(state.handle.db);
+await openMemoryDb();
+const net = await buildNetwork(state.handle!.db);
 const shop = net.shops.dune.id;
 const started = performance.now();
-await state.handle.db.execute(sql`
+await state.handle!.db.execute(sql`
   insert into customers (shop_id, name, phone, email)
   select ${shop}, 'Customer ' || g || ' ' || (array['Ashgrove','Birchall','Calloway','Dunmore','Eastwick'])[1 + g % 5],
          '207 555 ' || lpad((g % 10000)::text, 4, '0'), 'c' || g || '@example.test'
   from generate_series(1, ${CUSTOMERS}) g`);
-await state.handle.db.execute(sql`
+await state.handle!.db.execute(sql`
   insert into reels (customer_id, kind, maker, model, size)
   select c.id, 'spinning', (array['Brinemark','Tidewright','Gullwing','Copperhook'])[1 + c.id % 4],
          'Model ' || (c.id % 37), '3000'
   from customers c where c.shop_id = ${shop}`);
-await state.handle.db.execute(sql`
+await state.handle!.db.execute(sql`
   insert into jobs (shop_id, customer_id, reel_id, service_type, state, state_changed_at,
                     technician_id, checked_in_at, promised_at, ready_at, collected_at,
                     labour_cents, parts_cents)
@@ -49,7 +44,7 @@ await state.handle.db.execute(sql`
                 else 'collected'::job_state end as state,
            now() - (g * interval '9 minutes') + interval '2 days' as changed
   ) s`);
-await state.handle.db.execute(sql`analyze`);
+await state.handle!.db.execute(sql`analyze`);
 console.log(
   `seeded ${JOBS.toLocaleString('en-US')} jobs in ${Math.round(performance.now() - started)} ms`,
 );

@@ -1,19 +1,15 @@
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { customers, jobs, reels, type NewJob } from '@reelwright/db/schema';
 import { quantile } from '@reelwright/metrics';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { jobListQuery, type JobListParams } from '~/lib/validators/jobs';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import type { ApiError } from '../errors';
 import { openMinutesPerDay, shopCalendar } from '../bench/calendar';
 import { buildNetwork, type Network } from '../bench/fixture';
 import type { Principal } from '../principal';
 import { listJobs, promiseSuggestion, searchCustomers } from './bench';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 let net: Network;
 const NOW = new Date('2026-11-20T17:00:00Z');
@@ -21,10 +17,9 @@ const DAY = 86_400_000;
 const daysAgo = (n: number) => new Date(NOW.getTime() - n * DAY);
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildNetwork(state.handle.db);
-  const db = state.handle.db;
+  await openMemoryDb();
+  net = await buildNetwork(state.handle!.db);
+  const db = state.handle!.db;
   const [bo, cy] = await db
     .insert(customers)
     .values([
@@ -105,7 +100,7 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 const list = (who: Principal, params: JobListParams = {}) =>

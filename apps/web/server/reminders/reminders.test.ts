@@ -1,19 +1,15 @@
 import { eq } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { customers, emails, reels, remindersSent, unsubscribeTokens } from '@reelwright/db/schema';
 import nodemailer from 'nodemailer';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { deliverPending } from '../mail/outbox';
 import { buildMonthCloseNetwork } from '../month-close/test-network';
 import { dueReminders } from './due';
 import { getBatch, runBatch, startReminderBatch } from './send';
 import { unsubscribe, unsubscribeStatus } from './unsubscribe';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 // 20 February 2027 in New York; Dune's season runs 1 April – 15 November.
 const NOW = new Date('2027-02-20T15:00:00Z');
@@ -23,10 +19,9 @@ const reel: Record<string, number> = {};
 const customer: Record<string, number> = {};
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildMonthCloseNetwork(state.handle.db);
-  const conn = state.handle.db;
+  await openMemoryDb();
+  net = await buildMonthCloseNetwork(state.handle!.db);
+  const conn = state.handle!.db;
   const people = await conn
     .insert(customers)
     .values([
@@ -95,7 +90,7 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 describe('service reminders', () => {

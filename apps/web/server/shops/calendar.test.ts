@@ -1,30 +1,25 @@
 import { eq, sql } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import { activityLog, jobs } from '@reelwright/db/schema';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { CheckInInput } from '~/lib/validators/jobs';
 import { formatDayHours, parseDayHours, shopCalendarInput } from '~/lib/validators/shops';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import type { Principal } from '../principal';
 import { checkIn } from '../bench/check-in';
 import { buildNetwork, type Network } from '../bench/fixture';
 import { transitionJob } from '../bench/jobs';
 import { saveShopCalendar, shopCalendarView } from './calendar';
 
-const state = vi.hoisted(() => ({ handle: null as DbHandle | null }));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
 let net: Network;
 const db = () => state.handle!.db;
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
-  net = await buildNetwork(state.handle.db);
+  await openMemoryDb();
+  net = await buildNetwork(state.handle!.db);
 }, 60_000);
-afterAll(async () => state.handle?.close());
+afterAll(closeMemoryDb);
 
 // Monday 2 November 2026, after the autumn clock change: New York is UTC−5.
 const est = (day: number, clock: string) => {

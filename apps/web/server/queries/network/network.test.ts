@@ -1,5 +1,4 @@
 import { sql } from '@reelwright/db';
-import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
 import {
   auditRounds,
   auditSamples,
@@ -26,24 +25,17 @@ import {
 } from '@reelwright/metrics';
 import { NextRequest } from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { ApiError } from '../../errors';
 import type { Principal } from '../../principal';
 import { networkComparison, networkTrends, shopMetrics, shopTrends } from '../network';
 import { monthsOf } from './trends';
 import { turnaroundHistogram } from './shop';
 
-const state = vi.hoisted(() => ({
-  handle: null as DbHandle | null,
-  principal: null as Principal | null,
-}));
-vi.mock('~/server/db', () => ({
-  db: async () => state.handle!.db,
-  database: async () => state.handle!,
-}));
-vi.mock('~/server/session', () => ({
-  getPrincipal: async () => state.principal,
-  requirePagePrincipal: async () => state.principal,
-}));
+vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
+vi.mock('~/server/session', () =>
+  import('~/server/testing/memory-db').then((m) => m.sessionModule),
+);
 
 const APRIL = { from: '2026-04-01', to: '2026-04-30' };
 // Every April collection's 90-day window has closed by then.
@@ -282,13 +274,12 @@ async function buildNetwork() {
 }
 
 beforeAll(async () => {
-  state.handle = await openDb({ dataDir: 'memory://' });
-  await migrate(state.handle.db, state.handle.driver);
+  await openMemoryDb();
   await buildNetwork();
 }, 60_000);
 
 afterAll(async () => {
-  await state.handle?.close();
+  await closeMemoryDb();
 });
 
 const ctx = () => ({ db: db(), asOf: AS_OF });
