@@ -3,7 +3,8 @@
 import { afterAll, beforeAll, bench, describe, vi } from 'vitest';
 import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import { buildImportNetwork, identityMapping, importRows, toCsv } from './fixture';
-import { prepareImport, runImport } from './jobs';
+import { runImport } from './jobs';
+import { prepareImport } from './prepare';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 

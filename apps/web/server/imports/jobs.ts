@@ -1,4 +1,4 @@
-import { and, desc, eq, isNotNull, sql } from '@reelwright/db';
+import { desc, eq, isNotNull, sql } from '@reelwright/db';
 import {
   activityLog,
   benchSessions,
@@ -9,36 +9,20 @@ import {
   reels,
   serviceStandards,
   shopMonthFigures,
-  shops,
-  users,
   type NewJobEvent,
 } from '@reelwright/db/schema';
 import { jobTurnaround } from '@reelwright/metrics';
-import Papa from 'papaparse';
-import { createHash } from 'node:crypto';
 import type { JobState } from '~/lib/labels';
-import {
-  IMPORT_FIELD_KEYS,
-  IMPORT_MAX_ROWS,
-  rowShapeErrors,
-  validateImportRows,
-  type ColumnMapping,
-  type ImportField,
-  type ImportRowError,
-  type ParsedImportRow,
-} from '~/lib/validators/imports';
+import type { ParsedImportRow } from '~/lib/validators/imports';
 import { shopCalendar, localDate } from '../bench/calendar';
 import { pgError } from '../bench/shared';
 import { db } from '../db';
-import { badRequest, conflict, forbidden } from '../errors';
+import { conflict } from '../errors';
 import type { Principal } from '../principal';
 import { bulkInsert } from './bulk';
+import { invert, refuseDuplicate, type PreparedImport } from './prepare';
 
-export interface ImportFile {
-  fileName: string;
-  bytes: Uint8Array;
-  mapping: ColumnMapping;
-}
+// The second half of a CSV job import: storing a file prepare.ts has checked.
 
 /**
  * How far storing has got: `step` says what is being written, `fraction` is the whole import
@@ -59,173 +43,6 @@ export interface ImportSummary {
   reelsCreated: number;
   seconds: number;
 }
-
-export type PreparedImport =
-  | { ok: false; batchId: number; rowCount: number; errors: ImportRowError[] }
-  | {
-      ok: true;
-      shop: typeof shops.$inferSelect;
-      file: ImportFile;
-      digest: string;
-      rows: ParsedImportRow[];
-      technicians: Map<string, number>;
-    };
-
-/** The shop an import goes into: the shop lead's own. */
-async function importShop(principal: Principal) {
-  if (principal.scope.kind !== 'shop') throw forbidden('Jobs are imported by a shop’s own lead.');
-  const conn = await db();
-  const [shop] = await conn.select().from(shops).where(eq(shops.id, principal.scope.shopId));
-  if (!shop) throw forbidden('Your shop could not be found.');
-  return shop;
-}
-
-export const digestOf = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
-
-async function refuseDuplicate(shopId: number, digest: string, fileName: string) {
-  const conn = await db();
-  const [earlier] = await conn
-    .select({
-      id: importBatches.id,
-      fileName: importBatches.fileName,
-      importedCount: importBatches.importedCount,
-      completedAt: importBatches.completedAt,
-      by: users.name,
-    })
-    .from(importBatches)
-    .leftJoin(users, eq(users.id, importBatches.createdById))
-    .where(
-      and(
-        eq(importBatches.shopId, shopId),
-        eq(importBatches.kind, 'jobs'),
-        eq(importBatches.fileDigest, digest),
-        eq(importBatches.status, 'imported'),
-      ),
-    )
-    .limit(1);
-  if (!earlier) return;
-  const when = earlier.completedAt ? earlier.completedAt.toISOString().slice(0, 10) : 'earlier';
-  throw conflict(
-    `This file was already imported on ${when}${earlier.by ? ` by ${earlier.by}` : ''} ` +
-      `(import #${earlier.id}, “${earlier.fileName}”, ${earlier.importedCount} jobs). ` +
-      `Nothing was imported again${fileName !== earlier.fileName ? ` from “${fileName}”` : ''}.`,
-  );
-}
-
-/**
- * Reads and checks the whole file before anything is written: the CSV, the column mapping, every
- * row (lib/validators/imports.ts), then what only the database knows (job numbers already in the
- * shop, technicians' e-mails). A file that fails is recorded as a failed import with its errors.
- */
-export async function prepareImport(
-  principal: Principal,
-  file: ImportFile,
-  now = new Date(),
-): Promise<PreparedImport> {
-  const shop = await importShop(principal);
-  const digest = digestOf(file.bytes);
-  await refuseDuplicate(shop.id, digest, file.fileName);
-
-  const text = new TextDecoder('utf-8').decode(file.bytes).replace(/^\uFEFF/, '');
-  const parsed = Papa.parse<Record<string, string>>(text, {
-    header: true,
-    skipEmptyLines: 'greedy',
-    transformHeader: (h) => h.trim(),
-  });
-  const headers = parsed.meta.fields ?? [];
-  const missing = Object.entries(file.mapping).filter(([, header]) => !headers.includes(header));
-  if (missing.length) {
-    throw badRequest(
-      'The column mapping names columns the file does not have.',
-      missing.map(([field, header]) => ({
-        field: `mapping.${field}`,
-        message: `The file has no column “${header}”`,
-      })),
-    );
-  }
-  if (parsed.data.length === 0) throw badRequest('The file has no rows under its headings.');
-  if (parsed.data.length > IMPORT_MAX_ROWS) {
-    throw badRequest(
-      `The file has ${parsed.data.length} rows; import at most ${IMPORT_MAX_ROWS} at a time.`,
-    );
-  }
-
-  const rows = parsed.data.map((record) => {
-    const row: Partial<Record<ImportField, string>> = {};
-    for (const key of IMPORT_FIELD_KEYS) {
-      const header = file.mapping[key];
-      if (header) row[key] = record[header] ?? '';
-    }
-    return row;
-  });
-  const { valid, errors } = validateImportRows(rows, {
-    timeZone: shop.timeZone,
-    now,
-    mapping: file.mapping,
-  });
-  errors.push(...rowShapeErrors(parsed.data, headers));
-  // Cell-count problems are reported above, row by row; other CSV problems (quotes) as Papa says.
-  for (const e of parsed.errors) {
-    if (e.type !== 'FieldMismatch' && e.row !== undefined) {
-      errors.push({ row: e.row + 2, message: `The CSV cannot be read here: ${e.message}` });
-    }
-  }
-
-  // What only the database can tell.
-  const conn = await db();
-  const staff = await conn
-    .select({ id: users.id, email: users.email })
-    .from(users)
-    .where(and(eq(users.shopId, shop.id), eq(users.active, true)));
-  const technicians = new Map(staff.map((s) => [s.email, s.id]));
-  const existing = await conn
-    .select({ ref: jobs.externalRef })
-    .from(jobs)
-    .where(and(eq(jobs.shopId, shop.id), isNotNull(jobs.externalRef)));
-  const existingRefs = new Set(existing.map((r) => r.ref));
-  const column = (field: ImportField) => file.mapping[field] ?? field;
-  for (const row of valid) {
-    if (existingRefs.has(row.externalRef)) {
-      errors.push({
-        row: row.row,
-        column: column('external_ref'),
-        message: `Job ${row.externalRef} is already in Reelwright`,
-      });
-    }
-    if (row.technicianEmail && !technicians.has(row.technicianEmail)) {
-      errors.push({
-        row: row.row,
-        column: column('technician_email'),
-        message: `No one at ${shop.name} signs in as ${row.technicianEmail}`,
-      });
-    }
-  }
-
-  if (errors.length) {
-    errors.sort((a, b) => a.row - b.row);
-    const [batch] = await conn
-      .insert(importBatches)
-      .values({
-        shopId: shop.id,
-        fileName: file.fileName,
-        fileDigest: digest,
-        sizeBytes: file.bytes.length,
-        status: 'failed',
-        rowCount: rows.length,
-        errorCount: errors.length,
-        errors,
-        columnMap: invert(file.mapping),
-        createdById: principal.id,
-        completedAt: new Date(),
-      })
-      .returning({ id: importBatches.id });
-    return { ok: false, batchId: batch!.id, rowCount: rows.length, errors };
-  }
-  return { ok: true, shop, file, digest, rows: valid, technicians };
-}
-
-const invert = (mapping: ColumnMapping) =>
-  Object.fromEntries(Object.entries(mapping).map(([field, header]) => [header, field]));
 
 const customerKey = (c: ParsedImportRow['customer']) =>
   c.email

@@ -3,7 +3,8 @@ import { columnMappingSchema, IMPORT_MAX_BYTES } from '~/lib/validators/imports'
 import { route } from '~/server/api';
 import { badRequest, fieldErrorsOf, problemResponse } from '~/server/errors';
 import { recentImports } from '~/server/imports/history';
-import { prepareImport, runImport, type ImportProgress } from '~/server/imports/jobs';
+import { runImport, type ImportProgress } from '~/server/imports/jobs';
+import { prepareImport } from '~/server/imports/prepare';
 
 export const dynamic = 'force-dynamic';
 // A 50,000-row file takes a while to store.
