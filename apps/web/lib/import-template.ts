@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import { IMPORT_FIELDS } from './validators/imports';
+import { IMPORT_FIELDS } from './validators/import-columns';
 
 /** The template a shop lead fills in: every field's heading, an example row and a job still open. */
 export function importTemplateCsv(): string {

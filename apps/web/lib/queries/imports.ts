@@ -2,7 +2,8 @@ import { queryOptions } from '@tanstack/react-query';
 import type { ImportHistoryRow } from '~/server/imports/history';
 import type { ImportProgress, ImportSummary } from '~/server/imports/jobs';
 import { fetchJson } from '../api-client';
-import type { ImportField, ImportRowError } from '../validators/imports';
+import type { ImportRowError } from '../validators/imports';
+import type { ImportField } from '../validators/import-columns';
 
 export const importKeys = {
   history: ['imports', 'jobs'] as const,

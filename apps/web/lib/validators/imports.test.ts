@@ -1,14 +1,12 @@
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
+import { parseImportInstant, rowShapeErrors, validateImportRows } from './imports';
 import {
   columnMappingSchema,
   guessMapping,
   IMPORT_FIELD_KEYS,
-  parseImportInstant,
-  rowShapeErrors,
-  validateImportRows,
   type ImportField,
-} from './imports';
+} from './import-columns';
 
 const blank = () =>
   Object.fromEntries(IMPORT_FIELD_KEYS.map((k) => [k, ''])) as Record<ImportField, string>;

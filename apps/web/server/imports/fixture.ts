@@ -1,7 +1,7 @@
 import type { Db } from '@reelwright/db';
 import { customers, regions, shops, users, type OpeningHours } from '@reelwright/db/schema';
 import Papa from 'papaparse';
-import { IMPORT_FIELD_KEYS, type ImportField } from '~/lib/validators/imports';
+import { IMPORT_FIELD_KEYS, type ImportField } from '~/lib/validators/import-columns';
 import { scopeOf, type Principal } from '../principal';
 
 // A small hand-built network for the import tests and benchmark: one region, two shops (the

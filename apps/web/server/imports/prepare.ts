@@ -3,15 +3,17 @@ import { importBatches, jobs, shops, users } from '@reelwright/db/schema';
 import Papa from 'papaparse';
 import { createHash } from 'node:crypto';
 import {
-  IMPORT_FIELD_KEYS,
-  IMPORT_MAX_ROWS,
   rowShapeErrors,
   validateImportRows,
-  type ColumnMapping,
-  type ImportField,
   type ImportRowError,
   type ParsedImportRow,
 } from '~/lib/validators/imports';
+import {
+  IMPORT_FIELD_KEYS,
+  IMPORT_MAX_ROWS,
+  type ColumnMapping,
+  type ImportField,
+} from '~/lib/validators/import-columns';
 import { db } from '../db';
 import { badRequest, conflict, forbidden } from '../errors';
 import type { Principal } from '../principal';

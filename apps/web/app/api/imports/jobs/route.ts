@@ -1,5 +1,5 @@
 // GET, POST /api/imports/jobs – the shop's recent imports; import a CSV of past jobs, all rows in one transaction or none
-import { columnMappingSchema, IMPORT_MAX_BYTES } from '~/lib/validators/imports';
+import { columnMappingSchema, IMPORT_MAX_BYTES } from '~/lib/validators/import-columns';
 import { route } from '~/server/api';
 import { badRequest, fieldErrorsOf, problemResponse } from '~/server/errors';
 import { recentImports } from '~/server/imports/history';

@@ -3,16 +3,14 @@ import Papa from 'papaparse';
 import { useRef, useState, type ChangeEvent } from 'react';
 import { formatCount } from '~/lib/format';
 import { importKeys, sendImport, type ImportOutcome } from '~/lib/queries/imports';
+import { rowShapeErrors, validateImportRows, type ImportRowError } from '~/lib/validators/imports';
 import {
   guessMapping,
   IMPORT_FIELDS,
   IMPORT_MAX_BYTES,
   IMPORT_MAX_ROWS,
-  rowShapeErrors,
-  validateImportRows,
   type ImportField,
-  type ImportRowError,
-} from '~/lib/validators/imports';
+} from '~/lib/validators/import-columns';
 import type { ImportProgress } from '~/server/imports/jobs';
 
 export interface FileRead {
