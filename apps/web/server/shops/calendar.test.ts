@@ -1,13 +1,13 @@
 import { eq, sql } from '@reelwright/db';
 import { activityLog, jobs } from '@reelwright/db/schema';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import type { CheckInInput } from '~/lib/validators/jobs';
 import { formatDayHours, parseDayHours, shopCalendarInput } from '~/lib/validators/shops';
 import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
 import type { Principal } from '../principal';
 import { checkIn } from '../bench/check-in';
 import { buildNetwork, type Network } from '../bench/fixture';
 import { transitionJob } from '../bench/jobs';
+import { est, jobMaker } from '../bench/test-support';
 import { saveShopCalendar, shopCalendarView } from './calendar';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
@@ -21,20 +21,10 @@ beforeAll(async () => {
 }, 60_000);
 afterAll(closeMemoryDb);
 
-// Monday 2 November 2026, after the autumn clock change: New York is UTC−5.
-const est = (day: number, clock: string) => {
-  const [h, m] = clock.split(':').map(Number) as [number, number];
-  return new Date(Date.UTC(2026, 10, day, h + 5, m));
-};
+const { checkInBody } = jobMaker(() => net);
 
 async function readyJob(who: Principal, checkedIn: Date, waits: [Date, Date] | null, ready: Date) {
-  const body: CheckInInput = {
-    customer: { id: net.customers.ada.id },
-    reel: { id: net.reels.ada.id },
-    serviceType: 'tune_up',
-    promisedOn: '2026-11-06',
-  };
-  const { id } = await checkIn(who, body, { now: checkedIn });
+  const { id } = await checkIn(who, checkInBody(), { now: checkedIn });
   await transitionJob(who, id, { to: 'on_bench' }, { now: checkedIn });
   if (waits) {
     await transitionJob(who, id, { to: 'waiting_parts' }, { now: waits[0] });
