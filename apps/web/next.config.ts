@@ -1,4 +1,5 @@
 import type { NextConfig } from 'next';
+import { API_CONTENT_SECURITY_POLICY, STATIC_SECURITY_HEADERS } from './lib/security-headers';
 
 const config: NextConfig = {
   // Separate build folders let several checkouts' servers run side by side (set NEXT_DIST_DIR per checkout).
@@ -8,6 +9,16 @@ const config: NextConfig = {
   serverExternalPackages: ['@electric-sql/pglite', '@node-rs/argon2', 'pg'],
   poweredByHeader: false,
   typedRoutes: false,
+  // Pages get their CSP (with a per-request nonce) and HSTS from proxy.ts, API routes HSTS from route().
+  async headers() {
+    return [
+      { source: '/:path*', headers: [...STATIC_SECURITY_HEADERS] },
+      {
+        source: '/api/:path*',
+        headers: [{ key: 'Content-Security-Policy', value: API_CONTENT_SECURITY_POLICY }],
+      },
+    ];
+  },
 };
 
 export default config;

@@ -1,4 +1,4 @@
-import type { NextRequest } from 'next/server';
+import { NextRequest } from 'next/server';
 import type { z, ZodType } from 'zod';
 import { can, type Permission } from '~/lib/permissions';
 import {
@@ -10,6 +10,18 @@ import {
   unauthorized,
 } from './errors';
 import type { Principal } from './principal';
+import {
+  appOrigins,
+  assertContentType,
+  assertDeclaredLength,
+  assertSameOrigin,
+  DEFAULT_MAX_BODY_BYTES,
+  limitBody,
+  payloadTooLarge,
+  readBodyText,
+  UNSAFE_METHODS,
+} from './request-guards';
+import { strictTransportSecurity } from './security-headers';
 import { getPrincipal } from './session';
 
 type Infer<S> = S extends ZodType ? z.infer<S> : undefined;
@@ -19,6 +31,10 @@ interface RouteConfig<P, Q, B> {
   params?: P;
   query?: Q;
   body?: B;
+  /** Media types the body may have; default JSON. A route reading its own body (multipart) says so. */
+  contentTypes?: readonly string[];
+  /** Largest body accepted, in bytes; default 256 KiB. */
+  maxBodyBytes?: number;
 }
 
 interface RouteContext<P, Q, B> {
@@ -30,17 +46,27 @@ interface RouteContext<P, Q, B> {
 }
 
 /**
- * The one wrapper every route handler goes through: authenticate (401), check the role's
- * permission (403), parse params, query and body (400 with field errors), then act. Scope checks
- * (404 outside the caller's shops) happen in the queries, which take the principal.
+ * The one wrapper every route handler goes through: a state-changing request must come from the
+ * app's own origin (403) with a body of an accepted type (415) and size (413); then authenticate
+ * (401), check the role's permission (403), parse params, query and body (400 with field errors),
+ * and act. Scope checks (404 outside the caller's shops) happen in the queries, which take the
+ * principal.
  */
 export function route<
   P extends ZodType | undefined = undefined,
   Q extends ZodType | undefined = undefined,
   B extends ZodType | undefined = undefined,
 >(config: RouteConfig<P, Q, B>, act: (ctx: RouteContext<P, Q, B>) => Promise<unknown>) {
+  const contentTypes = config.contentTypes ?? ['application/json'];
+  const maxBodyBytes = config.maxBodyBytes ?? DEFAULT_MAX_BODY_BYTES;
   return async (request: NextRequest, context: { params: Promise<Record<string, string>> }) => {
+    let bodyExceeded = () => false;
     try {
+      if (UNSAFE_METHODS.has(request.method)) {
+        assertSameOrigin(request.method, request.headers, appOrigins(request.headers));
+        assertContentType(request.headers, contentTypes, Boolean(config.body));
+        assertDeclaredLength(request.headers, maxBodyBytes);
+      }
       const principal = await getPrincipal();
       if (!principal) throw unauthorized();
       if (!can(principal.role, config.permission)) throw forbidden();
@@ -48,10 +74,33 @@ export function route<
       const query = parse(config.query, Object.fromEntries(request.nextUrl.searchParams), 'query');
       let body: unknown;
       if (config.body) {
-        const raw = await request.json().catch(() => {
-          throw badRequest('The request body must be JSON.');
+        const text = await readBodyText(request, maxBodyBytes).catch((error: unknown) => {
+          if (error instanceof ApiError) throw error;
+          throw badRequest('The request body must be JSON in UTF-8.');
         });
+        let raw: unknown;
+        try {
+          raw = JSON.parse(text);
+        } catch {
+          throw badRequest('The request body must be JSON.');
+        }
         body = parse(config.body, raw, 'body');
+      } else if (UNSAFE_METHODS.has(request.method)) {
+        // A handler that reads the body itself gets it counted, so the cap holds while streaming.
+        const limited = limitBody(
+          request,
+          maxBodyBytes,
+          (stream) =>
+            new NextRequest(request.url, {
+              method: request.method,
+              headers: request.headers,
+              body: stream,
+              duplex: 'half',
+              signal: request.signal,
+            }),
+        );
+        request = limited.request;
+        bodyExceeded = limited.exceeded;
       }
       const result = await act({
         principal,
@@ -60,11 +109,31 @@ export function route<
         body: body as Infer<B>,
         request,
       });
-      return result instanceof Response ? result : Response.json(result);
+      return withSecurityHeaders(result instanceof Response ? result : Response.json(result));
     } catch (error) {
-      return problemResponse(error, request.nextUrl.pathname);
+      return withSecurityHeaders(
+        problemResponse(
+          bodyExceeded() ? payloadTooLarge(maxBodyBytes) : error,
+          request.nextUrl.pathname,
+        ),
+      );
     }
   };
+}
+
+/** HSTS depends on the public URL at run time, so it is added here rather than in next.config. */
+function withSecurityHeaders(response: Response): Response {
+  const hsts = strictTransportSecurity();
+  if (!hsts) return response;
+  try {
+    response.headers.set('strict-transport-security', hsts);
+    return response;
+  } catch {
+    // A response passed through from fetch() has read-only headers: copy it.
+    const copy = new Response(response.body, response);
+    copy.headers.set('strict-transport-security', hsts);
+    return copy;
+  }
 }
 
 function parse(schema: ZodType | undefined, value: unknown, where: string): unknown {

@@ -20,7 +20,14 @@ export const GET = route({ permission: 'jobs:import' }, async ({ principal }) =>
  * file was imported before. With `Accept: application/x-ndjson` the answer streams progress lines
  * `{"progress":{…}}` while rows are stored, then `{"done":{…}}` or `{"error":{…}}`.
  */
-export const POST = route({ permission: 'jobs:import' }, async ({ principal, request }) => {
+const postConfig = {
+  permission: 'jobs:import',
+  contentTypes: ['multipart/form-data'],
+  // The file's own limit plus room for the form's framing and the mapping field.
+  maxBodyBytes: IMPORT_MAX_BYTES + 1024 * 1024,
+} as const;
+
+export const POST = route(postConfig, async ({ principal, request }) => {
   const form = await request.formData().catch(() => {
     throw badRequest('Send the file as multipart/form-data with the fields file and mapping.');
   });
