@@ -1,5 +1,6 @@
 import { NextRequest } from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import type * as EnvModule from '~/env';
 import * as unknownRoute from '~/app/api/[...unknown]/route';
 import * as importRoute from '~/app/api/imports/jobs/route';
 import * as partsRoute from '~/app/api/jobs/[id]/parts/route';
@@ -15,7 +16,7 @@ vi.mock('~/server/session', () =>
   import('~/server/testing/memory-db').then((m) => m.sessionModule),
 );
 vi.mock('~/env', async (importOriginal) => {
-  const actual = await importOriginal<typeof import('~/env')>();
+  const actual = await importOriginal<typeof EnvModule>();
   return {
     env: {
       ...actual.env,

@@ -1,4 +1,5 @@
 import { describe, expect, it, vi } from 'vitest';
+import type * as EnvModule from '~/env';
 import { ApiError } from './errors';
 import {
   appOrigins,
@@ -13,7 +14,7 @@ const config = vi.hoisted(() => ({
   APP_BASE_URL: undefined as string | undefined,
 }));
 vi.mock('~/env', async (importOriginal) => {
-  const actual = await importOriginal<typeof import('~/env')>();
+  const actual = await importOriginal<typeof EnvModule>();
   return {
     env: new Proxy(actual.env, {
       get: (target, key) =>
