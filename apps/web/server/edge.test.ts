@@ -44,7 +44,7 @@ afterAll(async () => {
 type Handler = (
   request: NextRequest,
   context: { params: Promise<Record<string, string>> },
-) => Promise<Response>;
+) => Response | Promise<Response>;
 
 async function send(
   handler: Handler,

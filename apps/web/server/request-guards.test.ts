@@ -1,3 +1,4 @@
+import { NextRequest } from 'next/server';
 import { describe, expect, it, vi } from 'vitest';
 import type * as EnvModule from '~/env';
 import { ApiError } from './errors';
@@ -175,7 +176,7 @@ describe('body limit', () => {
   }
 
   const post = (body: BodyInit, headers: Record<string, string> = {}) =>
-    new Request('http://localhost/api/x', { method: 'POST', body, headers, duplex: 'half' });
+    new NextRequest('http://localhost/api/x', { method: 'POST', body, headers, duplex: 'half' });
 
   it('client – a body within the limit is read as text', async () => {
     expect(await readBodyText(post('{"a":"é"}'), DEFAULT_MAX_BODY_BYTES)).toBe('{"a":"é"}');
