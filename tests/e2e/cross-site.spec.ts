@@ -224,4 +224,24 @@ test.describe('owner in Chromium, on a page served from another port of the same
     expect(response.status()).toBe(403);
     expect(await status()).toBe('open');
   });
+
+  test('owner – the network page hydrates its charts under the CSP with no violation', async ({
+    page,
+  }) => {
+    await page.addInitScript(() => {
+      const seen: string[] = [];
+      (window as unknown as { cspViolations: string[] }).cspViolations = seen;
+      document.addEventListener('securitypolicyviolation', (e) =>
+        seen.push(`${e.violatedDirective} ${e.blockedURI}`),
+      );
+    });
+    await page.goto('/network');
+    await expect(page.locator('svg.recharts-surface').first()).toBeVisible();
+    // A client-side navigation works only once React has hydrated.
+    await page.getByRole('link', { name: 'Month close' }).click();
+    await expect(page.getByRole('heading', { level: 1, name: 'Month close' })).toBeVisible();
+    expect(
+      await page.evaluate(() => (window as unknown as { cspViolations: string[] }).cspViolations),
+    ).toEqual([]);
+  });
 });
