@@ -1,4 +1,4 @@
-import type { Db } from '@reelwright/db';
+import { desc, eq, type Db } from '@reelwright/db';
 import { activityLog } from '@reelwright/db/schema';
 import { pgStyleClient } from '@reelwright/db/sql-client';
 import { RateLimiterPostgres } from 'rate-limiter-flexible';
@@ -163,5 +163,35 @@ async function logLockout(
       until: until.toISOString(),
       lockout,
     },
+  });
+}
+
+export interface SignInBlock {
+  at: Date;
+  blocked: Kind;
+  email: string | null;
+  address: string;
+  seconds: number;
+}
+
+/** The latest sign-in blocks, newest first: the owner's view of the activity log's entries. */
+export async function recentSignInBlocks(limit = 20): Promise<SignInBlock[]> {
+  const rows = await (
+    await db()
+  )
+    .select({ at: activityLog.at, after: activityLog.after })
+    .from(activityLog)
+    .where(eq(activityLog.action, 'sign_in.blocked'))
+    .orderBy(desc(activityLog.at), desc(activityLog.id))
+    .limit(limit);
+  return rows.map(({ at, after }) => {
+    const a = (after ?? {}) as Partial<SignInBlock>;
+    return {
+      at,
+      blocked: a.blocked === 'address' ? 'address' : 'account',
+      email: a.email ?? null,
+      address: a.address ?? 'unknown',
+      seconds: Number(a.seconds ?? 0),
+    };
   });
 }
