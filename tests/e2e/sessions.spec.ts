@@ -25,7 +25,7 @@ test('shop lead – after signing out, the old cookie reads and writes nothing',
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page.getByRole('heading', { level: 1, name: LEAD.landing })).toBeVisible();
 
-  const jobs = await page.request.get('/api/jobs?pageSize=1');
+  const jobs = await page.request.get('/api/jobs?pageSize=25');
   expect(jobs.status()).toBe(200);
   const jobId = ((await jobs.json()) as { jobs: { id: number }[] }).jobs[0]!.id;
   const before = await (await page.request.get(`/api/jobs/${jobId}`)).json();
