@@ -10,6 +10,9 @@ const schema = z.object({
   PGLITE_DATA_DIR: z.string().min(1).optional(),
   NEXTAUTH_SECRET: z.string().min(16, 'NEXTAUTH_SECRET must be at least 16 characters').optional(),
   NEXTAUTH_URL: z.url().optional(),
+  // Reverse proxies in front of the app that append the client's address to X-Forwarded-For
+  // (0: none, the app is reached directly). The sign-in throttle counts failures per address.
+  TRUSTED_PROXY_HOPS: z.coerce.number().int().min(0).max(10).default(0),
   // Object storage for photos. With S3_ENDPOINT set (the local fake, MinIO, …) requests go there
   // path-style; without it the AWS endpoint of S3_REGION is used with the given credentials.
   S3_ENDPOINT: z.url().optional(),
@@ -43,6 +46,7 @@ function load() {
     PGLITE_DATA_DIR: process.env.PGLITE_DATA_DIR || undefined,
     NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET || undefined,
     NEXTAUTH_URL: process.env.NEXTAUTH_URL || undefined,
+    TRUSTED_PROXY_HOPS: process.env.TRUSTED_PROXY_HOPS || undefined,
     S3_ENDPOINT: process.env.S3_ENDPOINT || undefined,
     S3_REGION: process.env.S3_REGION || undefined,
     S3_BUCKET: process.env.S3_BUCKET || undefined,

@@ -41,6 +41,9 @@ export STRIPE_WEBHOOK_SECRET="${STRIPE_WEBHOOK_SECRET:-whsec_reelwright_end_to_e
 export PGLITE_DATA_DIR="$data_dir/pglite"
 export NEXTAUTH_SECRET="end-to-end-tests-only-secret-0123456789"
 export NEXTAUTH_URL="http://127.0.0.1:$port"
+# Playwright stands in for one proxy: sessions.spec.ts throttles sign-ins from a made-up address
+# (X-Forwarded-For) so the block never reaches 127.0.0.1, which every other spec signs in from.
+export TRUSTED_PROXY_HOPS=1
 unset DATABASE_URL
 pnpm --silent --filter @reelwright/db seed
 cd apps/web

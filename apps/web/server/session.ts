@@ -1,24 +1,24 @@
-import { eq } from '@reelwright/db';
-import { users } from '@reelwright/db/schema';
 import { getServerSession } from 'next-auth';
 import { redirect } from 'next/navigation';
 import { cache } from 'react';
 import { can, type Permission } from '~/lib/permissions';
-import { authOptions } from './auth';
-import { db } from './db';
+import { authOptions, isCurrent, sessionUser } from './auth';
 import { forbidden } from './errors';
 import { scopeOf, type Principal } from './principal';
 
 /**
- * The caller of this request, or null when signed out. The session only names the user; role and
- * scope are read fresh so that a change by the owner takes effect at once.
+ * The caller of this request, or null when signed out. The session only names the user and the
+ * session version it was issued at; role and scope are read fresh so that a change by the owner
+ * takes effect at once, and a session whose version has moved on (sign-out, a new password,
+ * deactivation, a new role or scope) is signed out.
  */
 export const getPrincipal = cache(async (): Promise<Principal | null> => {
   const session = await getServerSession(authOptions);
-  const id = (session?.user as { id?: unknown } | undefined)?.id;
+  const claims = session?.user as { id?: unknown; sessionVersion?: unknown } | undefined;
+  const id = claims?.id;
   if (typeof id !== 'number') return null;
-  const [user] = await (await db()).select().from(users).where(eq(users.id, id)).limit(1);
-  if (!user || !user.active) return null;
+  const user = await sessionUser(id);
+  if (!user || !isCurrent(user, claims?.sessionVersion)) return null;
   return {
     id: user.id,
     name: user.name,

@@ -1,6 +1,7 @@
 export * from './enums';
 export * from './shops';
 export * from './users';
+export * from './sign-in-throttle';
 export * from './customers';
 export * from './standards';
 export * from './jobs';

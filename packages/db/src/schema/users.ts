@@ -21,6 +21,12 @@ export const users = pgTable(
     /** Seeded demo account: the demo password is accepted only for these. */
     isDemo: boolean('is_demo').notNull().default(false),
     active: boolean('active').notNull().default(true),
+    /**
+     * Carried in the session cookie at sign-in; a session whose version differs has ended. Sign-out
+     * bumps it, and so does the trigger of migration 0004 whenever the password, active flag, role,
+     * shop or region changes, whatever code path wrote the row.
+     */
+    sessionVersion: integer('session_version').notNull().default(0),
     lastSignInAt: instant('last_sign_in_at'),
     createdAt: createdAt(),
   },

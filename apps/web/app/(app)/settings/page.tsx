@@ -1,10 +1,12 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { NotAllowed, PageHeader, Panel } from '~/components/ui';
+import { formatInZone } from '~/lib/format';
 import { can, ROLE_LABELS } from '~/lib/permissions';
 import { listShops } from '~/server/queries/shops';
 import { listPeople } from '~/server/queries/users';
 import { requirePagePrincipal } from '~/server/session';
+import { recentSignInBlocks } from '~/server/sign-in-throttle';
 
 export const metadata: Metadata = { title: 'Settings' };
 export const dynamic = 'force-dynamic';
@@ -12,7 +14,11 @@ export const dynamic = 'force-dynamic';
 export default async function SettingsPage() {
   const principal = await requirePagePrincipal();
   if (!can(principal.role, 'settings:manage')) return <NotAllowed />;
-  const [people, shops] = await Promise.all([listPeople(), listShops(principal)]);
+  const [people, shops, blocks] = await Promise.all([
+    listPeople(),
+    listShops(principal),
+    recentSignInBlocks(),
+  ]);
   return (
     <>
       <PageHeader title="Settings" lead="The network's shops and the people who work in them." />
@@ -119,6 +125,54 @@ export default async function SettingsPage() {
               </tbody>
             </table>
           </div>
+        </Panel>
+        <Panel
+          title="Sign-in blocks"
+          description="The latest accounts and addresses blocked after repeated failed sign-ins (times in UTC)."
+        >
+          {blocks.length === 0 ? (
+            <p className="text-slate-600">No sign-in has been blocked.</p>
+          ) : (
+            <div className="overflow-x-auto">
+              <table className="w-full min-w-[40rem] text-left">
+                <caption className="sr-only">Sign-in blocks</caption>
+                <thead>
+                  <tr className="border-b border-sand-300 text-sm text-slate-600">
+                    <th scope="col" className="py-2 pr-4 font-medium">
+                      When
+                    </th>
+                    <th scope="col" className="py-2 pr-4 font-medium">
+                      Blocked
+                    </th>
+                    <th scope="col" className="py-2 pr-4 font-medium">
+                      E-mail tried
+                    </th>
+                    <th scope="col" className="py-2 pr-4 font-medium">
+                      Address
+                    </th>
+                    <th scope="col" className="py-2 font-medium">
+                      For
+                    </th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {blocks.map((b, i) => (
+                    <tr key={i} className="border-b border-sand-100">
+                      <td className="py-3 pr-4">
+                        {formatInZone(b.at, 'UTC', 'd MMM yyyy, HH:mm')}
+                      </td>
+                      <td className="py-3 pr-4">
+                        {b.blocked === 'account' ? 'Account' : 'Address'}
+                      </td>
+                      <td className="py-3 pr-4">{b.email ?? '–'}</td>
+                      <td className="py-3 pr-4">{b.address}</td>
+                      <td className="py-3">{Math.round(b.seconds / 60)} min</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+          )}
         </Panel>
       </div>
     </>

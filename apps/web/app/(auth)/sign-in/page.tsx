@@ -1,13 +1,21 @@
 import type { Metadata } from 'next';
 import { redirect } from 'next/navigation';
 import { Logo } from '~/components/logo';
+import { signInErrorMessage } from '~/lib/sign-in-errors';
 import { getPrincipal } from '~/server/session';
 import { SignInForm } from './_components/sign-in-form';
 
 export const metadata: Metadata = { title: 'Sign in' };
 
-export default async function SignInPage() {
+export default async function SignInPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   if (await getPrincipal()) redirect('/');
+  // next-auth sends a refused sign-in here with ?error= when it is not handled in the form.
+  const { error } = await searchParams;
+  const initialError = signInErrorMessage(typeof error === 'string' ? error : null);
   return (
     <main className="grid min-h-screen lg:grid-cols-[minmax(0,5fr)_minmax(0,4fr)]">
       <section className="relative hidden flex-col justify-between overflow-hidden bg-sea-800 p-12 text-sand-100 lg:flex">
@@ -45,7 +53,7 @@ export default async function SignInPage() {
           <p className="mt-2 text-slate-600">
             Use the e-mail address your shop or the network gave you.
           </p>
-          <SignInForm />
+          <SignInForm initialError={initialError} />
         </div>
       </section>
     </main>

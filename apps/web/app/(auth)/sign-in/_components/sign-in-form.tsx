@@ -3,11 +3,12 @@
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
+import { signInErrorMessage, WRONG_CREDENTIALS } from '~/lib/sign-in-errors';
 import { signInSchema } from '~/lib/validators/auth';
 
-export function SignInForm() {
+export function SignInForm({ initialError = null }: { initialError?: string | null }) {
   const router = useRouter();
-  const [error, setError] = useState<string | null>(null);
+  const [error, setError] = useState<string | null>(initialError);
   const [fieldErrors, setFieldErrors] = useState<Partial<Record<'email' | 'password', string>>>({});
   const [pending, setPending] = useState(false);
 
@@ -34,8 +35,9 @@ export function SignInForm() {
     const result = await signIn('credentials', { ...parsed.data, redirect: false });
     setPending(false);
     if (!result || result.error) {
-      // One message for every failure, so the form never tells whether an address has an account.
-      setError('That e-mail and password do not match an active account.');
+      // One message for every failure, so the form never tells whether an address has an account;
+      // a throttled attempt also says how long to wait.
+      setError(signInErrorMessage(result?.error) ?? WRONG_CREDENTIALS);
       return;
     }
     router.replace('/');
