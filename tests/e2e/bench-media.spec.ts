@@ -250,6 +250,60 @@ test.describe('photos on the bench', () => {
   });
 });
 
+test('auditor – sees a sampled job’s photo through the round, served as the bench serves it', async ({
+  browser,
+}) => {
+  const auditor = await browser.newContext({ storageState: storageState('auditor') });
+  const { rounds } = (await (await auditor.request.get('/api/audit-rounds')).json()) as {
+    rounds: { id: number }[];
+  };
+  const round = rounds[0]!;
+  const detail = (await (await auditor.request.get(`/api/audit-rounds/${round.id}`)).json()) as {
+    samples: { jobId: number }[];
+  };
+  const jobId = detail.samples[0]!.jobId;
+
+  // The owner adds a photo to the sampled job (any shop), as the shop would have.
+  const owner = await browser.newContext({ storageState: storageState('owner') });
+  const png = pngImage(48, 36);
+  const ticket = await (
+    await owner.request.post(`/api/jobs/${jobId}/photos`, {
+      data: { stage: 'reassembly', contentType: 'image/png', size: png.length },
+    })
+  ).json();
+  await owner.request.put(ticket.uploadUrl, { data: png, headers: ticket.headers });
+  const confirmed = await owner.request.post(`/api/jobs/${jobId}/photos`, {
+    data: { confirm: ticket.photoId },
+  });
+  expect(confirmed.status()).toBe(200);
+  await owner.close();
+
+  const url = `/api/audit-rounds/${round.id}/samples/${jobId}/photos/${ticket.photoId}`;
+  const view = (await (
+    await auditor.request.get(`/api/audit-rounds/${round.id}/samples/${jobId}`)
+  ).json()) as { job: { photos: { id: number; url: string | null }[] } };
+  expect(view.job.photos.find((p) => p.id === ticket.photoId)?.url).toBe(url);
+  const file = await auditor.request.get(url);
+  expect(file.status()).toBe(200);
+  expect(file.headers()).toMatchObject({
+    'content-type': 'image/png',
+    'x-content-type-options': 'nosniff',
+    'content-security-policy': "default-src 'none'; sandbox",
+  });
+  expect(await file.body()).toEqual(png);
+  // The bench's route is not the auditor's.
+  expect((await auditor.request.get(`/api/jobs/${jobId}/photos/${ticket.photoId}`)).status()).toBe(
+    403,
+  );
+
+  const page = await auditor.newPage();
+  await page.goto(`/audits/${round.id}/samples/${jobId}`);
+  const img = page.locator(`img[src="${url}"]`);
+  await img.scrollIntoViewIfNeeded();
+  await expect.poll(() => img.evaluate((el: HTMLImageElement) => el.naturalWidth)).toBe(48);
+  await auditor.close();
+});
+
 test.describe('ready-for-pickup e-mail', () => {
   test('owner – sees the ready e-mail the catcher received', async ({ browser }) => {
     const email = `ready.${Date.now()}@example.test`;

@@ -142,7 +142,7 @@ describe('the payment fake', () => {
     const appUrl = `http://127.0.0.1:${(app.address() as AddressInfo).port}/api/webhooks/payments`;
     const script = fileURLToPath(new URL('../../scripts/fake-stripe.mjs', import.meta.url));
     const fake = spawn(process.execPath, [script, '--port=0'], {
-      env: { FAKE_STRIPE_WEBHOOK_URL: appUrl, STRIPE_WEBHOOK_SECRET: SECRET },
+      env: { NODE_ENV: 'test', FAKE_STRIPE_WEBHOOK_URL: appUrl, STRIPE_WEBHOOK_SECRET: SECRET },
       stdio: ['ignore', 'pipe', 'inherit'],
     });
     try {
