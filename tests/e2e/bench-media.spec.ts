@@ -105,11 +105,23 @@ test.describe('photos on the bench', () => {
       .toBe(96);
 
     const { photos } = (await (await request.get(`/api/jobs/${jobId}/photos`)).json()) as {
-      photos: { stage: string; contentType: string; sizeBytes: number }[];
+      photos: { id: number; stage: string; contentType: string; url: string }[];
     };
     expect(photos).toEqual([
       expect.objectContaining({ stage: 'teardown', contentType: 'image/png' }),
     ]);
+    // Served by the app, so nothing stored can run as the app's site.
+    const photo = photos[0]!;
+    expect(await img.getAttribute('src')).toBe(photo.url);
+    const file = await request.get(photo.url);
+    expect(file.status()).toBe(200);
+    expect(file.headers()).toMatchObject({
+      'content-type': 'image/png',
+      'x-content-type-options': 'nosniff',
+      'content-disposition': `inline; filename="job-${jobId}-teardown-${photo.id}.png"`,
+      'content-security-policy': "default-src 'none'; sandbox",
+    });
+    expect(await file.body()).toEqual(pngImage());
 
     await expectAccessible(page);
     await panel.screenshot({ path: screenshotPath('bench-photos-1280') });
@@ -143,7 +155,7 @@ test.describe('photos on the bench', () => {
       buffer: Buffer.from('Drag stack: 3 carbon washers, 2 steel.\nNot a picture.\n'),
     });
     await expect(panel.getByRole('alert')).toHaveText(
-      /reel\.png was not added\. This file is not a JPEG, PNG, WebP or HEIC photo \(its contents were checked, not its name\)\./,
+      /reel\.png was not added\. This file is not a JPEG, PNG or WebP photo \(its contents were checked, not its name\)\./,
     );
     await expect(panel.getByRole('heading', { name: 'At check-in (0)' })).toBeVisible();
     expect(
@@ -172,6 +184,60 @@ test.describe('photos on the bench', () => {
     expect(again.status()).toBe(404);
   });
 
+  test('technician – a re-PUT after confirming, a PNG header followed by a page and an SVG type change nothing served', async ({
+    request,
+  }) => {
+    const jobId = await benchJob(request, { name: 'Replay Testangler' });
+    const png = pngImage(40, 30);
+    const start = (contentType: string, size: number) =>
+      request.post(`/api/jobs/${jobId}/photos`, { data: { stage: 'check_in', contentType, size } });
+    const ticket = await (await start('image/png', png.length)).json();
+    expect(
+      (await request.put(ticket.uploadUrl, { data: png, headers: ticket.headers })).status(),
+    ).toBe(200);
+    const confirmed = await request.post(`/api/jobs/${jobId}/photos`, {
+      data: { confirm: ticket.photoId },
+    });
+    expect(confirmed.status()).toBe(200);
+    const { photo } = (await confirmed.json()) as { photo: { url: string } };
+
+    // The old upload URL still answers inside its five minutes, but only makes an orphan.
+    const page = Buffer.from(
+      '<html><script>alert(document.domain)</script></html>'.padEnd(png.length),
+    );
+    expect(
+      (await request.put(ticket.uploadUrl, { data: page, headers: ticket.headers })).status(),
+    ).toBe(200);
+    const served = await request.get(photo.url);
+    expect(served.headers()['content-type']).toBe('image/png');
+    expect(await served.body()).toEqual(png);
+
+    const polyglot = Buffer.concat([
+      png.subarray(0, 33),
+      Buffer.from('<html><body>hi</body></html>'),
+    ]);
+    const second = await (await start('image/png', polyglot.length)).json();
+    await request.put(second.uploadUrl, { data: polyglot, headers: second.headers });
+    const refused = await request.post(`/api/jobs/${jobId}/photos`, {
+      data: { confirm: second.photoId },
+    });
+    expect(refused.status()).toBe(400);
+    expect((await refused.json()).errors).toEqual([
+      { field: 'file', message: expect.stringContaining('not a complete PNG image') },
+    ]);
+
+    for (const type of ['image/svg+xml; charset=utf-8', 'image/', 'image/png\r\nx-evil: 1']) {
+      const bad = await start(type, 100);
+      expect(bad.status()).toBe(400);
+      expect(bad.headers()['content-type']).toContain('application/problem+json');
+      expect((await bad.json()).errors).toEqual([
+        { field: 'body.contentType', message: 'Only JPEG, PNG or WebP photos can be uploaded' },
+      ]);
+    }
+    const huge = await request.post(`/api/jobs/${jobId}/photos`, { data: { confirm: 2147483648 } });
+    expect(huge.status()).toBe(400);
+  });
+
   test('technician – another shop’s job photos are not found', async ({ browser, request }) => {
     const jobId = await benchJob(request, { name: 'Scoped Testangler' });
     const fennel = await browser.newContext({ storageState: storageState('techFennel') });
@@ -182,6 +248,60 @@ test.describe('photos on the bench', () => {
     expect(post.status()).toBe(404);
     await fennel.close();
   });
+});
+
+test('auditor – sees a sampled job’s photo through the round, served as the bench serves it', async ({
+  browser,
+}) => {
+  const auditor = await browser.newContext({ storageState: storageState('auditor') });
+  const { rounds } = (await (await auditor.request.get('/api/audit-rounds')).json()) as {
+    rounds: { id: number }[];
+  };
+  const round = rounds[0]!;
+  const detail = (await (await auditor.request.get(`/api/audit-rounds/${round.id}`)).json()) as {
+    samples: { jobId: number }[];
+  };
+  const jobId = detail.samples[0]!.jobId;
+
+  // The owner adds a photo to the sampled job (any shop), as the shop would have.
+  const owner = await browser.newContext({ storageState: storageState('owner') });
+  const png = pngImage(48, 36);
+  const ticket = await (
+    await owner.request.post(`/api/jobs/${jobId}/photos`, {
+      data: { stage: 'reassembly', contentType: 'image/png', size: png.length },
+    })
+  ).json();
+  await owner.request.put(ticket.uploadUrl, { data: png, headers: ticket.headers });
+  const confirmed = await owner.request.post(`/api/jobs/${jobId}/photos`, {
+    data: { confirm: ticket.photoId },
+  });
+  expect(confirmed.status()).toBe(200);
+  await owner.close();
+
+  const url = `/api/audit-rounds/${round.id}/samples/${jobId}/photos/${ticket.photoId}`;
+  const view = (await (
+    await auditor.request.get(`/api/audit-rounds/${round.id}/samples/${jobId}`)
+  ).json()) as { job: { photos: { id: number; url: string | null }[] } };
+  expect(view.job.photos.find((p) => p.id === ticket.photoId)?.url).toBe(url);
+  const file = await auditor.request.get(url);
+  expect(file.status()).toBe(200);
+  expect(file.headers()).toMatchObject({
+    'content-type': 'image/png',
+    'x-content-type-options': 'nosniff',
+    'content-security-policy': "default-src 'none'; sandbox",
+  });
+  expect(await file.body()).toEqual(png);
+  // The bench's route is not the auditor's.
+  expect((await auditor.request.get(`/api/jobs/${jobId}/photos/${ticket.photoId}`)).status()).toBe(
+    403,
+  );
+
+  const page = await auditor.newPage();
+  await page.goto(`/audits/${round.id}/samples/${jobId}`);
+  const img = page.locator(`img[src="${url}"]`);
+  await img.scrollIntoViewIfNeeded();
+  await expect.poll(() => img.evaluate((el: HTMLImageElement) => el.naturalWidth)).toBe(48);
+  await auditor.close();
 });
 
 test.describe('ready-for-pickup e-mail', () => {

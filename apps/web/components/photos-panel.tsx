@@ -21,7 +21,7 @@ interface UploadState {
   error?: string;
 }
 
-/** Browsers show JPEG, PNG and WebP inline; HEIC only in some, so it gets a tile and a download. */
+/** HEIC photos kept before only JPEG, PNG and WebP were accepted get a tile and a download. */
 const showsInline = (type: string) => type !== 'image/heic' && type !== 'image/heif';
 
 const sizeText = (bytes: number) =>
@@ -194,7 +194,7 @@ export function PhotosPanel({ jobId, canUpload }: { jobId: number; canUpload: bo
                           aria-label={`Open ${PHOTO_STAGE_LABELS[s].toLowerCase()} photo ${i + 1} of ${inStage.length}`}
                         >
                           {showsInline(photo.contentType) ? (
-                            // eslint-disable-next-line @next/next/no-img-element -- presigned storage URLs, not optimisable
+                            // eslint-disable-next-line @next/next/no-img-element -- served by the app's photo route, not optimisable
                             <img
                               src={photo.url}
                               alt=""
@@ -299,7 +299,7 @@ function PhotoDialog(props: {
           </div>
           <div className="flex min-h-0 flex-1 items-center justify-center bg-slate-900">
             {showsInline(photo.contentType) ? (
-              // eslint-disable-next-line @next/next/no-img-element -- presigned storage URLs, not optimisable
+              // eslint-disable-next-line @next/next/no-img-element -- served by the app's photo route, not optimisable
               <img
                 src={photo.url}
                 alt={`${PHOTO_STAGE_LABELS[photo.stage]} photo of the reel`}

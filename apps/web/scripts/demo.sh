@@ -64,6 +64,19 @@ fi
 # Royalty invoices: Stripe when STRIPE_SECRET_KEY is set, otherwise the local stand-in.
 if [ -z "${STRIPE_SECRET_KEY:-}${STRIPE_API_BASE:-}" ]; then
   echo "› starting the local payment fake"
+  # The fake signs the events it sends with this secret and the app verifies them with it: made
+  # once and kept with the demo's data, like the database it belongs to.
+  if [ -z "${STRIPE_WEBHOOK_SECRET:-}" ]; then
+    webhook_secret_file="$REELWRIGHT_ROOT/data/fake-stripe-webhook-secret"
+    mkdir -p "$(dirname "$webhook_secret_file")"
+    if [ ! -s "$webhook_secret_file" ]; then
+      node -e "console.log('whsec_' + require('node:crypto').randomBytes(24).toString('base64url'))" >"$webhook_secret_file"
+      chmod 600 "$webhook_secret_file"
+    fi
+    STRIPE_WEBHOOK_SECRET="$(cat "$webhook_secret_file")"
+  fi
+  export STRIPE_WEBHOOK_SECRET
+  export FAKE_STRIPE_WEBHOOK_URL="${FAKE_STRIPE_WEBHOOK_URL:-http://127.0.0.1:$PORT/api/webhooks/payments}"
   stripe_env="$(mktemp /tmp/reelwright-stripe.XXXXXX)"
   rm -f "$stripe_env"
   FAKE_STRIPE_ENV_FILE="$stripe_env" node apps/web/scripts/fake-stripe.mjs &
@@ -82,7 +95,13 @@ if [ -n "${MAIL_CATCHER_URL:-}" ]; then
 else
   mail_where="sent through SMTP_URL"
 fi
-if [ -n "${STRIPE_API_BASE:-}" ]; then payments_where="the local payment fake at $STRIPE_API_BASE"; else payments_where="Stripe"; fi
+if [ -n "${STRIPE_API_BASE:-}" ]; then
+  payments_where="the local payment fake at $STRIPE_API_BASE (it signs its webhooks to /api/webhooks/payments)"
+elif [ -n "${STRIPE_WEBHOOK_SECRET:-}" ]; then
+  payments_where="Stripe"
+else
+  payments_where="Stripe; set STRIPE_WEBHOOK_SECRET to record payments from its webhooks"
+fi
 cat <<MSG
 
   Reelwright is starting on http://127.0.0.1:$PORT

@@ -2,12 +2,15 @@
 // A local stand-in for the few Stripe endpoints royalty invoicing uses (customers, invoice items,
 // invoices: create, retrieve, finalize, send, pay), honouring Idempotency-Key as Stripe does: the
 // same key and parameters replay the first answer, the same key with other parameters is a 400.
-// State lives in memory; it sends no webhooks (tests sign and post those themselves).
+// State lives in memory. When an invoice is paid (POST /v1/invoices/{id}/pay, or the "Pay" button
+// of its hosted page /i/{id}) and FAKE_STRIPE_WEBHOOK_URL and STRIPE_WEBHOOK_SECRET are set, it
+// posts an invoice.paid event there, signed as Stripe signs them (Stripe-Signature: t=…,v1=…).
 //
 //   node apps/web/scripts/fake-stripe.mjs [--port=N]   # or FAKE_STRIPE_PORT (12111; 0 = any); FAKES_HOST
 //
 // GET /_fake/state lists what was created. FAKE_STRIPE_ENV_FILE: once listening, STRIPE_API_BASE
 // and a placeholder STRIPE_SECRET_KEY are written there as KEY=value lines.
+import { createHmac } from 'node:crypto';
 import { renameSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 
@@ -22,6 +25,37 @@ const fail = (status, message, type = 'invalid_request_error') => ({
   body: { error: { type, message } },
 });
 const ok = (body) => ({ status: 200, body });
+const webhookUrl = process.env.FAKE_STRIPE_WEBHOOK_URL;
+const webhookSecret = process.env.STRIPE_WEBHOOK_SECRET;
+
+/** Posts a signed event to the app, as Stripe does: HMAC-SHA256 of "{t}.{body}" with the secret. */
+async function sendEvent(type, object) {
+  if (!webhookUrl || !webhookSecret) return;
+  const created = Math.floor(Date.now() / 1000);
+  const id = `evt_fake${String(++counter).padStart(8, '0')}`;
+  const body = JSON.stringify({
+    id,
+    object: 'event',
+    type,
+    created,
+    livemode: false,
+    data: { object },
+  });
+  const signature = createHmac('sha256', webhookSecret).update(`${created}.${body}`).digest('hex');
+  try {
+    const response = await fetch(webhookUrl, {
+      method: 'POST',
+      headers: {
+        'content-type': 'application/json',
+        'stripe-signature': `t=${created},v1=${signature}`,
+      },
+      body,
+    });
+    console.log(`fake-stripe: ${type} ${object.id} → ${response.status}`);
+  } catch (error) {
+    console.error(`fake-stripe: could not deliver ${type}: ${error.message}`);
+  }
+}
 
 /** Stripe's form encoding: `metadata[shop_id]=3` becomes { metadata: { shop_id: '3' } }. */
 function parseForm(text) {
@@ -80,7 +114,10 @@ function handle(method, path, params) {
     const url = `http://${host}:${server.address().port}/i/${id}`;
     Object.assign(invoice, { status: 'open', number: `FAKE-${counter}`, hosted_invoice_url: url });
   }
-  if (verb === 'pay') Object.assign(invoice, { status: 'paid', amount_paid: invoice.total });
+  if (verb === 'pay') {
+    Object.assign(invoice, { status: 'paid', amount_paid: invoice.total });
+    void sendEvent('invoice.paid', structuredClone(totals(invoice)));
+  }
   return ok(totals(invoice));
 }
 
@@ -93,6 +130,8 @@ const server = http.createServer((req, res) => {
       res.writeHead(status, { 'content-type': 'application/json' });
       res.end(JSON.stringify(body));
     };
+    const hosted = /^\/i\/([\w-]+)(\/pay)?$/.exec(url.pathname);
+    if (hosted) return hostedPage(req, res, hosted[1], Boolean(hosted[2]));
     if (url.pathname === '/_fake/state')
       return send(
         ok(Object.fromEntries(Object.entries(store).map(([k, m]) => [k, [...m.values()]]))),
@@ -116,6 +155,32 @@ const server = http.createServer((req, res) => {
     send(result);
   });
 });
+
+const escape = (text) => String(text).replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+/** The invoice's hosted page: its amount and status, and a button that pays it. */
+function hostedPage(req, res, id, pay) {
+  const invoice = store.invoices.get(id);
+  if (!invoice) {
+    res.writeHead(404, { 'content-type': 'text/plain' });
+    return res.end('No such invoice.');
+  }
+  if (pay && req.method === 'POST') {
+    if (invoice.status === 'open') handle('POST', `/v1/invoices/${id}/pay`, {});
+    res.writeHead(303, { location: `/i/${id}` });
+    return res.end();
+  }
+  const amount = `${(invoice.total / 100).toFixed(2)} ${invoice.currency.toUpperCase()}`;
+  res.writeHead(200, {
+    'content-type': 'text/html; charset=utf-8',
+    'content-security-policy': "default-src 'none'; form-action 'self'",
+  });
+  res.end(`<!doctype html><html lang="en"><meta charset="utf-8"><title>Invoice ${escape(invoice.number ?? id)}</title>
+<h1>Invoice ${escape(invoice.number ?? id)} (payment fake)</h1>
+<p>${escape(invoice.description ?? 'Royalty invoice')}: ${escape(amount)}, ${escape(invoice.status)}.</p>
+${invoice.status === 'open' ? `<form method="post" action="/i/${escape(id)}/pay"><button>Pay this invoice</button></form>` : ''}
+</html>`);
+}
 
 server.listen(port, host, () => {
   const base = `http://${host}:${server.address().port}`;

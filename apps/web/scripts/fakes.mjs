@@ -40,12 +40,11 @@ const settings = {};
 // s3rver accepts the access key it was started with; its own defaults are S3RVER / S3RVER.
 const S3_KEY = 'S3RVER';
 
-// The browser PUTs photos straight to storage from the app's origin, so the bucket allows CORS.
+// The browser PUTs photos straight to storage from the app's origin, so the bucket allows CORS for
+// that; photos are read back through the app, never by the browser from here.
 const corsXml = `<CORSConfiguration>
   <CORSRule>
     <AllowedOrigin>*</AllowedOrigin>
-    <AllowedMethod>GET</AllowedMethod>
-    <AllowedMethod>HEAD</AllowedMethod>
     <AllowedMethod>PUT</AllowedMethod>
     <AllowedHeader>*</AllowedHeader>
     <ExposeHeader>ETag</ExposeHeader>
@@ -64,6 +63,13 @@ async function startS3() {
     // Path-style only: the bucket is never taken from the Host header.
     vhostBuckets: false,
     configureBuckets: [{ name: bucket, configs: [corsXml] }],
+  });
+  // The fake shares the app's host name (another port is the same site), so nothing it serves may
+  // be taken for a page: no sniffing, and a sandbox with no script even if opened directly.
+  server.middleware.unshift(async (ctx, next) => {
+    await next();
+    ctx.set('X-Content-Type-Options', 'nosniff');
+    ctx.set('Content-Security-Policy', "default-src 'none'; sandbox");
   });
   const address = await server.run();
   closers.push(() => server.close());

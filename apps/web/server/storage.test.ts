@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import S3rver from 's3rver';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { checkPhoto, SNIFF_BYTES } from './photos/check';
+import { checkPhoto } from './photos/check';
 import { pngImage } from './photos/test-images';
 import type * as StorageModule from './storage';
 
@@ -37,14 +37,15 @@ afterAll(async () => {
 });
 
 describe('object storage', () => {
-  it('uploads through a presigned PUT, then reads the size and only the first bytes back', async () => {
+  it('uploads through a presigned PUT that expires in five minutes, then reads it back', async () => {
     const png = pngImage(64, 64);
-    const key = storage.photoKey(3, 41);
-    expect(key).toMatch(/^shops\/3\/jobs\/41\/[0-9a-f-]{36}$/);
+    const key = storage.uploadKey(3, 41);
+    expect(key).toMatch(/^photos\/uploads\/3\/41\/[0-9a-f-]{36}$/);
 
     const url = await storage.presignUpload(key, { contentType: 'image/png', size: png.length });
-    const signed = new URL(url).searchParams.get('X-Amz-SignedHeaders');
-    expect(signed?.split(';')).toEqual(
+    const query = new URL(url).searchParams;
+    expect(query.get('X-Amz-Expires')).toBe('300');
+    expect(query.get('X-Amz-SignedHeaders')?.split(';')).toEqual(
       expect.arrayContaining(['content-length', 'content-type', 'host']),
     );
     const put = await fetch(url, {
@@ -55,17 +56,26 @@ describe('object storage', () => {
     expect(put.status).toBe(200);
 
     expect(await storage.headObject(key)).toEqual({ size: png.length });
-    const start = await storage.readFirstBytes(key, 16);
-    expect(Buffer.from(start)).toEqual(png.subarray(0, 16));
+    expect(Buffer.from(await storage.readFirstBytes(key, 16))).toEqual(png.subarray(0, 16));
     // The stored bytes are the file itself (no chunk framing), so the check by bytes passes.
-    const sniff = await storage.readFirstBytes(key, SNIFF_BYTES);
-    expect(await checkPhoto(sniff, png.length)).toEqual({ ok: true, contentType: 'image/png' });
+    const whole = await storage.readFirstBytes(key, png.length + 1);
+    expect(await checkPhoto(whole)).toMatchObject({ ok: true, contentType: 'image/png' });
 
-    const view = await fetch(await storage.presignView(key, 'image/png'));
-    expect(view.headers.get('content-type')).toBe('image/png');
-    expect(Buffer.from(await view.arrayBuffer())).toEqual(png);
+    const kept = storage.confirmedKey(3, 41);
+    expect(kept).toMatch(/^photos\/confirmed\/3\/41\/[0-9a-f-]{36}$/);
+    await storage.putObject(kept, whole, 'image/png');
+    const opened = await storage.openObject(kept);
+    expect(opened?.size).toBe(png.length);
+    expect(Buffer.from(await new Response(opened!.body).arrayBuffer())).toEqual(png);
 
     await storage.deleteObject(key);
     expect(await storage.headObject(key)).toBeNull();
+    expect(await storage.openObject(key)).toBeNull();
+  });
+
+  it('never signs an upload to a checked photo’s key', async () => {
+    await expect(
+      storage.presignUpload(storage.confirmedKey(3, 41), { contentType: 'image/png', size: 10 }),
+    ).rejects.toThrow('No upload URL outside photos/uploads/');
   });
 });

@@ -10,9 +10,15 @@ import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { randomUUID } from 'node:crypto';
 import { env } from '~/env';
 
-/** Presigned URLs are short-lived: long enough to upload from a bench tablet, not to share. */
-export const UPLOAD_URL_SECONDS = 10 * 60;
-export const VIEW_URL_SECONDS = 15 * 60;
+/** Presigned uploads are short-lived: long enough to send a photo from a bench tablet, no more. */
+export const UPLOAD_URL_SECONDS = 5 * 60;
+
+/**
+ * Uploads land under one prefix and checked photos are written under another, for which no
+ * presigned URL is ever issued: a later PUT to an old upload URL can only make an orphan.
+ */
+export const UPLOAD_PREFIX = 'photos/uploads/';
+export const CONFIRMED_PREFIX = 'photos/confirmed/';
 
 const CLIENT_KEY = Symbol.for('reelwright.storage.client');
 
@@ -42,16 +48,22 @@ export function storageClient(): S3Client {
   }));
 }
 
-/** Where a job's photo lives: grouped by shop and job so a shop's files can be listed or removed together. */
-export function photoKey(shopId: number, jobId: number): string {
-  return `shops/${shopId}/jobs/${jobId}/${randomUUID()}`;
+/** Where the browser uploads a job's photo: grouped by shop and job so they can be listed together. */
+export function uploadKey(shopId: number, jobId: number): string {
+  return `${UPLOAD_PREFIX}${shopId}/${jobId}/${randomUUID()}`;
+}
+
+/** Where a checked photo is kept, written by the server alone. */
+export function confirmedKey(shopId: number, jobId: number): string {
+  return `${CONFIRMED_PREFIX}${shopId}/${jobId}/${randomUUID()}`;
 }
 
 /**
  * A URL the browser PUTs the file to. Content type and length are signed, so storage that checks
  * signatures refuses a different type or size; the server still checks the stored bytes afterwards.
  */
-export function presignUpload(key: string, file: { contentType: string; size: number }) {
+export async function presignUpload(key: string, file: { contentType: string; size: number }) {
+  if (!key.startsWith(UPLOAD_PREFIX)) throw new Error(`No upload URL outside ${UPLOAD_PREFIX}`);
   return getSignedUrl(
     storageClient(),
     new PutObjectCommand({
@@ -64,15 +76,6 @@ export function presignUpload(key: string, file: { contentType: string; size: nu
       expiresIn: UPLOAD_URL_SECONDS,
       signableHeaders: new Set(['content-type', 'content-length']),
     },
-  );
-}
-
-/** A short-lived URL to show a photo, served with the type detected from its bytes. */
-export function presignView(key: string, contentType: string, expiresIn = VIEW_URL_SECONDS) {
-  return getSignedUrl(
-    storageClient(),
-    new GetObjectCommand({ Bucket: env.S3_BUCKET, Key: key, ResponseContentType: contentType }),
-    { expiresIn },
   );
 }
 
@@ -89,7 +92,7 @@ export async function headObject(key: string): Promise<{ size: number } | null> 
   }
 }
 
-/** The first `count` bytes of an object (a ranged GET: the rest is never downloaded). */
+/** At most the first `count` bytes of an object (a ranged GET: the rest is never downloaded). */
 export async function readFirstBytes(key: string, count: number): Promise<Uint8Array> {
   const object = await storageClient().send(
     new GetObjectCommand({ Bucket: env.S3_BUCKET, Key: key, Range: `bytes=0-${count - 1}` }),
@@ -97,6 +100,35 @@ export async function readFirstBytes(key: string, count: number): Promise<Uint8A
   if (!object.Body) return new Uint8Array();
   const bytes = await object.Body.transformToByteArray();
   return bytes.subarray(0, count);
+}
+
+/** Stores bytes the server has checked, with the type they were found to be. */
+export async function putObject(key: string, bytes: Uint8Array, contentType: string) {
+  await storageClient().send(
+    new PutObjectCommand({
+      Bucket: env.S3_BUCKET,
+      Key: key,
+      Body: bytes,
+      ContentType: contentType,
+      ContentLength: bytes.length,
+    }),
+  );
+}
+
+/** An object's bytes as a stream, with its size, or null when it is not there. */
+export async function openObject(
+  key: string,
+): Promise<{ body: ReadableStream<Uint8Array>; size: number } | null> {
+  try {
+    const object = await storageClient().send(
+      new GetObjectCommand({ Bucket: env.S3_BUCKET, Key: key }),
+    );
+    if (!object.Body) return null;
+    return { body: object.Body.transformToWebStream(), size: object.ContentLength ?? 0 };
+  } catch (error) {
+    if (isMissing(error)) return null;
+    throw error;
+  }
 }
 
 export async function deleteObject(key: string): Promise<void> {

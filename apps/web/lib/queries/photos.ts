@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { PhotoView, UploadTicket } from '~/server/photos/service';
-import type { PhotoStage } from '../validators/photos';
+import { DECLARED_PHOTO_TYPE, PHOTO_TYPES_TEXT, type PhotoStage } from '../validators/photos';
 import { fetchJson, ProblemError } from '../api-client';
 
 export const photoKeys = {
@@ -12,9 +12,7 @@ export const jobPhotosQuery = (jobId: number) =>
     queryKey: photoKeys.job(jobId),
     queryFn: () =>
       fetchJson<{ photos: PhotoView[]; timeZone: string }>(`/api/jobs/${jobId}/photos`),
-    // View URLs live 15 minutes; fetch fresh ones well before they run out.
     staleTime: 5 * 60_000,
-    refetchInterval: 10 * 60_000,
   });
 
 const postJson = <T>(url: string, body: unknown) =>
@@ -64,6 +62,13 @@ export async function uploadPhoto(
   file: File,
   onProgress: (fraction: number) => void,
 ): Promise<PhotoView> {
+  // Checked here too, so a file the server would refuse at the start is not offered to it.
+  if (!DECLARED_PHOTO_TYPE.test(file.type)) {
+    throw new ProblemError(400, {
+      title: 'Not a photo',
+      detail: `This file is not a ${PHOTO_TYPES_TEXT} photo.`,
+    });
+  }
   const ticket = await postJson<UploadTicket>(`/api/jobs/${jobId}/photos`, {
     stage,
     contentType: file.type,

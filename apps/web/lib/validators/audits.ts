@@ -93,6 +93,7 @@ export const roundListQuery = z.object({
 export type RoundListQuery = z.infer<typeof roundListQuery>;
 
 export const roundSampleParams = z.object({ id: idParam, jobId: idParam });
+export const samplePhotoParams = roundSampleParams.extend({ photoId: idParam });
 
 const NOTE_MAX = 2000;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idParam } from './common';
 
 export const PHOTO_STAGES = ['check_in', 'teardown', 'reassembly'] as const;
 export type PhotoStage = (typeof PHOTO_STAGES)[number];
@@ -10,19 +11,24 @@ export const PHOTO_STAGE_LABELS: Record<PhotoStage, string> = {
 };
 
 export const PHOTO_MAX_BYTES = 10 * 1024 * 1024;
-/** The kinds of image the bench accepts, as detected from the file's bytes. */
-export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'image/heic', 'image/heif'];
-export const PHOTO_TYPES_TEXT = 'JPEG, PNG, WebP or HEIC';
+/** The kinds of image the bench accepts: every browser shows them inline. */
+export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
+export type PhotoType = (typeof PHOTO_TYPES)[number];
+export const PHOTO_TYPES_TEXT = 'JPEG, PNG or WebP';
+
+/**
+ * The declared type, taken exactly: one of the three, any case, with no parameters, spaces or
+ * line breaks (JS `$` never matches before a trailing newline). The bytes are checked again at
+ * confirmation; this keeps anything else out of the signed upload headers.
+ */
+export const DECLARED_PHOTO_TYPE = /^image\/(?:jpeg|png|webp)$/i;
 
 export const photoUploadRequest = z.object({
   stage: z.enum(PHOTO_STAGES, { error: 'Choose check-in, teardown or reassembly' }),
   // What the browser says the file is; only a first filter, the bytes decide later.
   contentType: z
-    .string()
-    .max(100)
-    .refine((t) => t === '' || t === 'application/octet-stream' || t.startsWith('image/'), {
-      message: `Only photos can be uploaded (${PHOTO_TYPES_TEXT})`,
-    }),
+    .string({ error: `Give the photo's type (${PHOTO_TYPES_TEXT})` })
+    .regex(DECLARED_PHOTO_TYPE, `Only ${PHOTO_TYPES_TEXT} photos can be uploaded`),
   size: z
     .number({ error: 'Give the file size in bytes' })
     .int()
@@ -33,8 +39,15 @@ export const photoUploadRequest = z.object({
 export type PhotoUploadRequest = z.infer<typeof photoUploadRequest>;
 
 export const photoConfirmRequest = z.object({
-  confirm: z.number().int().positive(),
+  // A strict positive int32: the photo id column's range, so a larger number is a 400, never a 500.
+  confirm: z
+    .number({ error: 'Give the photo id as a number' })
+    .int('Must be a whole number')
+    .positive('Must be positive')
+    .max(2_147_483_647, 'Too large'),
 });
+
+export const photoParams = z.object({ id: idParam, photoId: idParam });
 
 /**
  * POST /api/jobs/{id}/photos takes either a new upload or, with `confirm`, the confirmation of

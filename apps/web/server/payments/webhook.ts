@@ -14,15 +14,62 @@ export interface WebhookOutcome {
 
 const HANDLED = new Set(['invoice.paid', 'invoice.payment_failed']);
 
+/** Stripe's events are a few kB; anything near this is not one of them. */
+export const WEBHOOK_MAX_BYTES = 64 * 1024;
+/** How far the signed timestamp may be from our clock, either way (Stripe's own default: 5 min). */
+export const WEBHOOK_TOLERANCE_SECONDS = 5 * 60;
+
+const tooLarge = () =>
+  new ApiError(
+    413,
+    'payload-too-large',
+    'Payload too large',
+    `A webhook body may be at most ${WEBHOOK_MAX_BYTES / 1024} kB.`,
+  );
+
+/**
+ * The raw body, counted while it streams in: a declared or actual size over the limit is a 413
+ * before more is read, and nothing is parsed until the whole body is within it.
+ */
+export async function readWebhookBody(request: Request): Promise<Uint8Array> {
+  const declared = Number(request.headers.get('content-length') ?? 0);
+  if (declared > WEBHOOK_MAX_BYTES) throw tooLarge();
+  if (!request.body) return new Uint8Array();
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > WEBHOOK_MAX_BYTES) {
+      await reader.cancel().catch(() => undefined);
+      throw tooLarge();
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks);
+}
+
+/** The signed `t=` of a Stripe-Signature header, read as the Stripe library reads it (the last one). */
+function signedTimestamp(header: string): number {
+  let timestamp = Number.NaN;
+  for (const item of header.split(',')) {
+    const [key, value] = item.split('=');
+    if (key === 't' && value !== undefined) timestamp = parseInt(value, 10);
+  }
+  return timestamp;
+}
+
 /**
  * Verifies a payment-provider webhook (Stripe-Signature over the raw body with the endpoint's
- * secret, five minutes' tolerance) and records invoice.paid / invoice.payment_failed against the
+ * secret, stamped within five minutes of now either way) and records invoice.paid / invoice.payment_failed against the
  * royalty invoice: the event in payment_events (once per event id) and the invoice's status. A
  * missing or wrong signature is a 400 before anything is read or written.
  */
 export async function handlePaymentWebhook(
   conn: Db,
-  payload: string,
+  payload: string | Uint8Array,
   signature: string | null,
   secret: string | undefined,
   now = new Date(),
@@ -37,9 +84,23 @@ export async function handlePaymentWebhook(
   if (!signature) throw badRequest('The Stripe-Signature header is missing.');
   let event: Stripe.Event;
   try {
-    event = Stripe.webhooks.constructEvent(payload, signature, secret);
+    // The library refuses stamps too old but not ones from the future, which a leaked signing
+    // secret or a skewed sender could otherwise use for events that stay valid for ever.
+    event = Stripe.webhooks.constructEvent(
+      payload,
+      signature,
+      secret,
+      WEBHOOK_TOLERANCE_SECONDS,
+      undefined,
+      now.getTime(),
+    );
   } catch {
     throw badRequest('The webhook signature does not verify.');
+  }
+  if (!(signedTimestamp(signature) - now.getTime() / 1000 <= WEBHOOK_TOLERANCE_SECONDS)) {
+    throw badRequest(
+      'The webhook is stamped more than five minutes ahead of this server’s clock; it was not accepted.',
+    );
   }
   if (!HANDLED.has(event.type))
     return { received: true, type: event.type, recorded: false, royaltyInvoiceId: null };

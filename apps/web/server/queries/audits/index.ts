@@ -13,5 +13,5 @@ export {
   type RoundDetail,
   type RoundSampleRow,
 } from './rounds';
-export { getSample, type SampleView } from './samples';
+export { getSample, requireSampledJob, type SampleView } from './samples';
 export { auditSummaryByShop, type ShopAuditSummary } from './summary';

@@ -11,7 +11,7 @@ import {
 } from '@reelwright/db/schema';
 import { db } from '../../db';
 import { notFound } from '../../errors';
-import { presignView, storageConfigured } from '../../storage';
+import { storageConfigured } from '../../storage';
 import { applicableSteps } from '../bench';
 import { jobBenchSessions, jobTimeline } from '../job-history';
 
@@ -94,15 +94,21 @@ export interface JobRecord {
     width: number | null;
     height: number | null;
     contentType: string;
-    /** A short-lived view URL; null when photo storage is not configured on this server. */
+    /** The app's URL for the photo; null when photo storage is not configured on this server. */
     url: string | null;
   }[];
   /** False when photo storage is not configured: photos are listed by name only. */
   photosViewable: boolean;
 }
 
-/** The read-only record of a job, as an audit sees it (no customer contact details). */
-export async function jobRecord(jobId: number): Promise<JobRecord> {
+/**
+ * The read-only record of a job, as an audit sees it (no customer contact details); `photoUrl`
+ * names the route that serves its photos to this reader.
+ */
+export async function jobRecord(
+  jobId: number,
+  photoUrl: (photoId: number) => string,
+): Promise<JobRecord> {
   const conn = await db();
   const [row] = await conn
     .select({ job: jobs, reel: reels, technicianName: users.name, rate: shops.labourRateCents })
@@ -153,18 +159,16 @@ export async function jobRecord(jobId: number): Promise<JobRecord> {
   ]);
   const tickByStep = new Map(ticks.map((t) => [t.stepId, t]));
   const viewable = storageConfigured();
-  const photoViews = await Promise.all(
-    pictures.map(async (p) => ({
-      id: p.id,
-      stage: p.stage,
-      name: p.originalName ?? `Photo ${p.id}`,
-      caption: p.caption,
-      width: p.width,
-      height: p.height,
-      contentType: p.contentType,
-      url: viewable ? await presignView(p.storageKey, p.contentType).catch(() => null) : null,
-    })),
-  );
+  const photoViews = pictures.map((p) => ({
+    id: p.id,
+    stage: p.stage,
+    name: p.originalName ?? `Photo ${p.id}`,
+    caption: p.caption,
+    width: p.width,
+    height: p.height,
+    contentType: p.contentType,
+    url: viewable ? photoUrl(p.id) : null,
+  }));
   const minutes = sessions.reduce((t, s) => t + (s.minutes ?? 0), 0);
   return {
     id: job.id,

@@ -1,4 +1,4 @@
-import { asc, eq } from '@reelwright/db';
+import { and, asc, eq } from '@reelwright/db';
 import { auditAnswers, auditForms, auditSamples } from '@reelwright/db/schema';
 import type { AnswerResultValue, VerdictValue } from '~/lib/validators/audits';
 import { db } from '../../db';
@@ -52,7 +52,10 @@ export async function getSample(
       .from(auditAnswers)
       .where(eq(auditAnswers.sampleId, sample.id)),
     passMark(),
-    jobRecord(jobId),
+    jobRecord(
+      jobId,
+      (photoId) => `/api/audit-rounds/${roundId}/samples/${jobId}/photos/${photoId}`,
+    ),
     conn
       .select({ version: auditForms.version })
       .from(auditForms)
@@ -80,4 +83,16 @@ export async function getSample(
       round.status !== 'decided' &&
       round.status !== 'cancelled',
   };
+}
+
+/** 404 unless the job is in the sample of a round the caller sees (for serving its photos). */
+export async function requireSampledJob(principal: Principal, roundId: number, jobId: number) {
+  await findRound(principal, roundId);
+  const conn = await db();
+  const [sample] = await conn
+    .select({ id: auditSamples.id })
+    .from(auditSamples)
+    .where(and(eq(auditSamples.roundId, roundId), eq(auditSamples.jobId, jobId)))
+    .limit(1);
+  if (!sample) throw notFound('sampled job');
 }

@@ -86,7 +86,7 @@ export function JobRecordView({ job, timeZone }: { job: Record; timeZone: string
             {job.photos.map((p) => (
               <figure key={p.id}>
                 {p.url ? (
-                  // Presigned, short-lived URLs to object storage: next/image cannot optimise them.
+                  // Served by the app's photo route, access checked per request: next/image would bypass that.
                   // eslint-disable-next-line @next/next/no-img-element
                   <img
                     src={p.url}

@@ -1,14 +1,14 @@
-// POST /api/webhooks/payments – payment-provider webhook: verifies the signature, records paid and failed royalty invoices
+// POST /api/webhooks/payments – payment-provider webhook (at most 64 kB, stamped within 5 minutes): verifies the signature, records paid and failed royalty invoices
 import type { NextRequest } from 'next/server';
 import { env } from '~/env';
 import { db } from '~/server/db';
 import { problemResponse } from '~/server/errors';
-import { handlePaymentWebhook } from '~/server/payments/webhook';
+import { handlePaymentWebhook, readWebhookBody } from '~/server/payments/webhook';
 
 // No session here: the Stripe-Signature over the raw body is the caller's proof.
 export async function POST(request: NextRequest) {
   try {
-    const payload = await request.text();
+    const payload = await readWebhookBody(request);
     const outcome = await handlePaymentWebhook(
       await db(),
       payload,

@@ -1,0 +1,11 @@
+// GET /api/jobs/{id}/photos/{photoId} – one checked photo's image, with its detected type, nosniff and a sandboxing policy
+import { photoParams } from '~/lib/validators/photos';
+import { route } from '~/server/api';
+import { jobPhotoResponse } from '~/server/photos/service';
+
+export const dynamic = 'force-dynamic';
+
+export const GET = route(
+  { permission: 'jobs:read', params: photoParams },
+  async ({ principal, params }) => jobPhotoResponse(principal, params.id, params.photoId),
+);
