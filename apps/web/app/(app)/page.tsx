@@ -28,13 +28,27 @@ export default async function HomePage() {
 // An auditor sees a shop only through the rounds assigned to them: no shop's live work or figures.
 async function AuditorHome({ principal }: { principal: Principal }) {
   const queryClient = new QueryClient();
-  queryClient.setQueryData(roundsQuery().queryKey, { rounds: await listRounds(principal) });
+  const rounds = await listRounds(principal);
+  queryClient.setQueryData(roundsQuery().queryKey, { rounds });
+  const open = rounds.filter((r) => r.status !== 'decided' && r.status !== 'cancelled');
   return (
     <>
       <PageHeader
         title="Shops to audit"
         lead="The shops whose finished jobs an audit round assigns to you. Open a round to score its sampled jobs."
       />
+      <dl className="mb-8 grid grid-cols-2 gap-4 lg:grid-cols-4">
+        <Stat label="Rounds assigned" value={formatCount(rounds.length)} />
+        <Stat label="Rounds to finish" value={formatCount(open.length)} />
+        <Stat
+          label="Samples scored"
+          value={formatCount(rounds.reduce((n, r) => n + r.scored, 0))}
+        />
+        <Stat
+          label="Samples to score"
+          value={formatCount(open.reduce((n, r) => n + Math.max(0, r.sampleSize - r.scored), 0))}
+        />
+      </dl>
       <HydrationBoundary state={dehydrate(queryClient)}>
         <Panel
           title="Your audit rounds"
