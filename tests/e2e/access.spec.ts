@@ -1,4 +1,4 @@
-import { expect, test, type APIRequestContext } from '@playwright/test';
+import { expect, test, type APIRequestContext, type Browser } from '@playwright/test';
 import { DEMO_PASSWORD, screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
 
@@ -136,6 +136,122 @@ test.describe('roles and scopes', () => {
       expect(response.status()).toBe(400);
       const body = await response.json();
       expect(body.errors[0]).toMatchObject({ field: 'path.id' });
+    });
+  });
+});
+
+// Replays of the scope failures: the auditor read every shop's figures, a technician saw
+// colleagues' revenue, and another shop's filter answered 200 with an empty list.
+test.describe('scope of figures and shop filters', () => {
+  const QUARTER = 'from=2026-04-01&to=2026-06-30';
+  const MISSING_SHOP = 999_999;
+
+  async function ownerShopIds(browser: Browser) {
+    const owner = await browser.newContext({ storageState: storageState('owner') });
+    const ids = {
+      marram: await shopIdByName(owner.request, 'Marram Point'),
+      fennel: await shopIdByName(owner.request, 'Fennel Cove'),
+    };
+    await owner.close();
+    return ids;
+  }
+
+  test.describe(() => {
+    test.use({ storageState: storageState('auditor') });
+    test('auditor – gets 403 from every shop figure route and the "not allowed" pages', async ({
+      request,
+      page,
+      browser,
+    }) => {
+      const { marram } = await ownerShopIds(browser);
+      for (const id of [marram, MISSING_SHOP]) {
+        for (const path of [
+          `/api/shops/${id}`,
+          `/api/shops/${id}/metrics?${QUARTER}`,
+          `/api/shops/${id}/trends?${QUARTER}&metric=revenue`,
+        ]) {
+          const response = await request.get(path);
+          expect(response.status(), path).toBe(403);
+          expect(response.headers()['content-type']).toContain('application/problem+json');
+        }
+      }
+      expect((await request.get('/api/shops')).status()).toBe(403);
+      expect(await (await request.get('/api/me')).json()).toMatchObject({
+        role: 'auditor',
+        scope: { kind: 'rounds' },
+      });
+
+      await page.goto('/');
+      await expect(page.getByRole('heading', { level: 1, name: 'Shops to audit' })).toBeVisible();
+      await expect(page.getByRole('region', { name: 'Your audit rounds' })).toBeVisible();
+      await expect(page.getByRole('region', { name: 'Shops' })).toHaveCount(0);
+      const nav = page.getByRole('navigation', { name: 'Sections' });
+      await expect(nav.getByRole('link', { name: 'Network' })).toHaveCount(0);
+      await expect(nav.getByRole('link', { name: 'Shop', exact: true })).toHaveCount(0);
+      for (const path of [`/shops/${marram}`, '/network']) {
+        await page.goto(path);
+        await expect(
+          page.getByRole('heading', { name: 'Not available for your role' }),
+        ).toBeVisible();
+      }
+    });
+  });
+
+  test.describe(() => {
+    test.use({ storageState: storageState('techMarram') });
+    test("technician – sees their own revenue row, never a colleague's", async ({
+      request,
+      browser,
+    }) => {
+      const { marram } = await ownerShopIds(browser);
+      const me = (await (await request.get('/api/me')).json()) as { id: number };
+      const mine = await request.get(`/api/shops/${marram}/metrics?${QUARTER}`);
+      expect(mine.status()).toBe(200);
+      const { byTechnician } = (await mine.json()) as { byTechnician: { key: string }[] };
+      expect(byTechnician.map((g) => g.key)).toEqual([String(me.id)]);
+
+      // The shop's lead still sees the whole split, so there were colleagues to hide.
+      const lead = await browser.newContext({ storageState: storageState('leadMarram') });
+      const all = (await (
+        await lead.request.get(`/api/shops/${marram}/metrics?${QUARTER}`)
+      ).json()) as { byTechnician: { key: string }[] };
+      await lead.close();
+      expect(all.byTechnician.length).toBeGreaterThan(1);
+    });
+  });
+
+  test.describe(() => {
+    test.use({ storageState: storageState('managerNorth') });
+    test('regional manager – a shop filter outside the region or missing is a 404', async ({
+      request,
+      browser,
+    }) => {
+      const { marram, fennel } = await ownerShopIds(browser);
+      for (const list of [
+        '/api/corrective-actions?shopId=',
+        '/api/audit-rounds?shopId=',
+        '/api/comebacks?shop=',
+        '/api/jobs?shopId=',
+      ]) {
+        expect((await request.get(`${list}${marram}`)).status(), `${list} own`).toBe(200);
+        for (const id of [fennel, MISSING_SHOP]) {
+          const response = await request.get(`${list}${id}`);
+          expect(response.status(), `${list}${id}`).toBe(404);
+          expect(response.headers()['content-type']).toContain('application/problem+json');
+        }
+      }
+    });
+  });
+
+  test.describe(() => {
+    test.use({ storageState: storageState('leadFennel') });
+    test("shop lead – another shop's reminders are a 404", async ({ request, browser }) => {
+      const { marram, fennel } = await ownerShopIds(browser);
+      for (const list of ['/api/reminders/due?shop=', '/api/reminders/batches?shop=']) {
+        expect((await request.get(`${list}${fennel}`)).status(), `${list} own`).toBe(200);
+        expect((await request.get(`${list}${marram}`)).status(), `${list} other`).toBe(404);
+        expect((await request.get(`${list}${MISSING_SHOP}`)).status(), `${list} missing`).toBe(404);
+      }
     });
   });
 });

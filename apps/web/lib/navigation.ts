@@ -10,7 +10,7 @@ export interface NavItem {
 
 // Only sections that work are listed; each role sees the ones its permissions allow.
 const ITEMS: NavItem[] = [
-  { href: '/', label: 'Home', permission: 'shops:read' },
+  { href: '/', label: 'Home', permission: 'account:read' },
   { href: '/bench', label: 'Bench', permission: 'jobs:read' },
   { href: '/network', label: 'Network', permission: 'network:read', multiShop: true },
   { href: '/comebacks', label: 'Comebacks', permission: 'comebacks:read' },
@@ -34,7 +34,7 @@ export function navFor(
   // The caught-mail page exists only where a local SMTP catcher runs (development and tests).
   if (options.mailCatcher && can(role, 'dev-mail:read'))
     items.push({ href: '/dev/mail', label: 'Caught mail', permission: 'dev-mail:read' });
-  if (shopId != null)
+  if (shopId != null && can(role, 'shops:read'))
     items.splice(1, 0, { href: `/shops/${shopId}`, label: 'Shop', permission: 'shops:read' });
   return items;
 }

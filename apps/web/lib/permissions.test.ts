@@ -6,7 +6,8 @@ const Y = true;
 const N = false;
 const expected: Record<Permission, Record<Role, boolean>> = {
   //                                owner regional_manager shop_lead technician auditor
-  'shops:read': row(Y, Y, Y, Y, Y),
+  'account:read': row(Y, Y, Y, Y, Y),
+  'shops:read': row(Y, Y, Y, Y, N),
   'network:read': row(Y, Y, N, N, N),
   'jobs:read': row(Y, Y, Y, Y, N),
   'jobs:write': row(N, N, Y, Y, N),

@@ -3,6 +3,7 @@ export const ROLES = ['owner', 'regional_manager', 'shop_lead', 'technician', 'a
 export type Role = (typeof ROLES)[number];
 
 export const PERMISSIONS = [
+  'account:read',
   'shops:read',
   'network:read',
   'jobs:read',
@@ -26,6 +27,7 @@ export type Permission = (typeof PERMISSIONS)[number];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   owner: [
+    'account:read',
     'shops:read',
     'network:read',
     'jobs:read',
@@ -42,6 +44,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     'dev-mail:read',
   ],
   regional_manager: [
+    'account:read',
     'shops:read',
     'network:read',
     'jobs:read',
@@ -54,6 +57,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     'month-close:read',
   ],
   shop_lead: [
+    'account:read',
     'shops:read',
     'jobs:read',
     'jobs:write',
@@ -64,8 +68,9 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     'corrective-actions:manage',
     'reminders:send',
   ],
-  technician: ['shops:read', 'jobs:read', 'jobs:write', 'comebacks:read'],
-  auditor: ['shops:read', 'audits:read', 'audits:score'],
+  technician: ['account:read', 'shops:read', 'jobs:read', 'jobs:write', 'comebacks:read'],
+  // No 'shops:read': an auditor sees a shop only through the rounds assigned to them.
+  auditor: ['account:read', 'audits:read', 'audits:score'],
 };
 
 export function can(role: Role, permission: Permission): boolean {

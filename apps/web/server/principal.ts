@@ -1,7 +1,11 @@
 import type { Role } from '~/lib/permissions';
 
+// An auditor's scope is the shops of the audit rounds assigned to them, never the whole network.
 export type Scope =
-  { kind: 'network' } | { kind: 'region'; regionId: number } | { kind: 'shop'; shopId: number };
+  | { kind: 'network' }
+  | { kind: 'region'; regionId: number }
+  | { kind: 'shop'; shopId: number }
+  | { kind: 'rounds' };
 
 /** The signed-in caller, as loaded fresh from the database on every request. */
 export interface Principal {
@@ -27,5 +31,6 @@ export function scopeOf(user: {
     if (user.regionId == null) throw new Error('A regional manager must have a region');
     return { kind: 'region', regionId: user.regionId };
   }
+  if (user.role === 'auditor') return { kind: 'rounds' };
   return { kind: 'network' };
 }

@@ -19,31 +19,57 @@ export const dynamic = 'force-dynamic';
 
 export default async function HomePage() {
   const principal = await requirePagePrincipal();
+  if (principal.scope.kind === 'rounds') return <AuditorHome principal={principal} />;
   if (principal.scope.kind === 'shop')
     return <ShopHome principal={principal} shopId={principal.scope.shopId} />;
   return <NetworkHome principal={principal} />;
 }
 
+// An auditor sees a shop only through the rounds assigned to them: no shop's live work or figures.
+async function AuditorHome({ principal }: { principal: Principal }) {
+  const queryClient = new QueryClient();
+  const rounds = await listRounds(principal);
+  queryClient.setQueryData(roundsQuery().queryKey, { rounds });
+  const open = rounds.filter((r) => r.status !== 'decided' && r.status !== 'cancelled');
+  return (
+    <>
+      <PageHeader
+        title="Shops to audit"
+        lead="The shops whose finished jobs an audit round assigns to you. Open a round to score its sampled jobs."
+      />
+      <dl className="mb-8 grid grid-cols-2 gap-4 lg:grid-cols-4">
+        <Stat label="Rounds assigned" value={formatCount(rounds.length)} />
+        <Stat label="Rounds to finish" value={formatCount(open.length)} />
+        <Stat
+          label="Samples scored"
+          value={formatCount(rounds.reduce((n, r) => n + r.scored, 0))}
+        />
+        <Stat
+          label="Samples to score"
+          value={formatCount(open.reduce((n, r) => n + Math.max(0, r.sampleSize - r.scored), 0))}
+        />
+      </dl>
+      <HydrationBoundary state={dehydrate(queryClient)}>
+        <Panel
+          title="Your audit rounds"
+          description="Rounds assigned to you, newest period first. Open one to score its sampled jobs."
+        >
+          <RoundsTable auditor />
+        </Panel>
+      </HydrationBoundary>
+    </>
+  );
+}
+
 async function NetworkHome({ principal }: { principal: Principal }) {
   const queryClient = new QueryClient();
-  const auditor = principal.role === 'auditor';
-  const [shops, rounds] = await Promise.all([
-    listShops(principal),
-    auditor ? listRounds(principal) : Promise.resolve(null),
-  ]);
+  const shops = await listShops(principal);
   queryClient.setQueryData(shopsQuery().queryKey, { shops });
-  if (rounds) queryClient.setQueryData(roundsQuery().queryKey, { rounds });
   const sum = (pick: (s: (typeof shops)[number]) => number) =>
     shops.reduce((t, s) => t + pick(s), 0);
   const regionName = principal.scope.kind === 'region' ? shops[0]?.region.name : undefined;
-  const title = auditor
-    ? 'Shops to audit'
-    : regionName
-      ? `${regionName} today`
-      : 'The network today';
-  const lead = auditor
-    ? 'Every shop in the network and the work passing through it. You score the jobs that an audit round assigns to you.'
-    : `${shops.length} shops in your view. Counts are live; "this week" runs from Monday in each shop's own time zone.`;
+  const title = regionName ? `${regionName} today` : 'The network today';
+  const lead = `${shops.length} shops in your view. Counts are live; "this week" runs from Monday in each shop's own time zone.`;
   return (
     <>
       <PageHeader title={title} lead={lead} />
@@ -59,14 +85,6 @@ async function NetworkHome({ principal }: { principal: Principal }) {
       </dl>
       <HydrationBoundary state={dehydrate(queryClient)}>
         <div className="space-y-8">
-          {auditor && (
-            <Panel
-              title="Your audit rounds"
-              description="Rounds assigned to you, newest period first. Open one to score its sampled jobs."
-            >
-              <RoundsTable auditor />
-            </Panel>
-          )}
           <Panel title="Shops" description="Open work per shop. Select a shop for its page.">
             <ShopsTable caption="Shops in your view with their open work" />
           </Panel>

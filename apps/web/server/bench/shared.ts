@@ -24,6 +24,9 @@ export function jobScope(principal: Principal): SQL | undefined {
       );
     case 'shop':
       return eq(jobs.shopId, principal.scope.shopId);
+    case 'rounds':
+      // An auditor reads jobs only as samples of their rounds, never as bench work.
+      return sql`false`;
   }
 }
 

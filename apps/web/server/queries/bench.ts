@@ -42,7 +42,7 @@ import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
 import { jobBenchSessions, jobTimeline } from './job-history';
-import { shopScope } from './scope';
+import { shopFilter, shopScope } from './scope';
 
 const DAY = 86_400_000;
 
@@ -178,11 +178,11 @@ export async function listJobs(
 ): Promise<JobList> {
   const now = options.now ?? new Date();
   const conn = await db();
+  await shopFilter(principal, q.shopId, conn);
   const zones = await conn
     .select({ id: shops.id, timeZone: shops.timeZone })
     .from(shops)
     .where(and(shopScope(principal), q.shopId === undefined ? undefined : eq(shops.id, q.shopId)));
-  if (q.shopId !== undefined && zones.length === 0) throw notFound('shop');
   const shopIds =
     q.shopId === undefined && principal.scope.kind === 'network' ? null : zones.map((s) => s.id);
   const search = q.q && !/^#\d{1,9}$/.test(q.q) ? await searchMatches(conn, q.q) : null;

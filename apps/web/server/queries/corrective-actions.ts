@@ -11,7 +11,7 @@ import { localToday } from '../audits/sampling';
 import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
-import { shopScope } from './scope';
+import { shopFilter, shopScope } from './scope';
 
 export interface CorrectiveActionRow {
   id: number;
@@ -99,12 +99,13 @@ function toRow(
   };
 }
 
-/** Corrective actions of the caller's shops: unverified first, soonest due first. */
+/** Corrective actions of the caller's shops: unverified first, soonest due first; 404 for a shop filter outside them. */
 export async function listCorrectiveActions(
   principal: Principal,
   query: CorrectiveActionListQuery = {},
   now = new Date(),
 ): Promise<CorrectiveActionRow[]> {
+  await shopFilter(principal, query.shopId);
   const list = await rows(
     principal,
     and(

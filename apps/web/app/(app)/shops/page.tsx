@@ -1,4 +1,5 @@
 import { redirect } from 'next/navigation';
+import { can } from '~/lib/permissions';
 import { requirePagePrincipal } from '~/server/session';
 
 export const dynamic = 'force-dynamic';
@@ -7,5 +8,7 @@ export const dynamic = 'force-dynamic';
 export default async function ShopsPage() {
   const principal = await requirePagePrincipal();
   if (principal.scope.kind === 'shop') redirect(`/shops/${principal.scope.shopId}`);
+  // An auditor sees shops only through their audit rounds.
+  if (!can(principal.role, 'network:read')) redirect('/audits');
   redirect('/network');
 }

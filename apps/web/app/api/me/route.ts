@@ -1,7 +1,7 @@
 // GET /api/me – the signed-in caller: id, name, role and scope
 import { route } from '~/server/api';
 
-export const GET = route({ permission: 'shops:read' }, async ({ principal }) => ({
+export const GET = route({ permission: 'account:read' }, async ({ principal }) => ({
   id: principal.id,
   name: principal.name,
   email: principal.email,

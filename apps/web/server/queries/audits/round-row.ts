@@ -23,6 +23,8 @@ export function roundScope(principal: Principal): SQL | undefined {
       return eq(shops.regionId, principal.scope.regionId);
     case 'shop':
       return and(eq(shops.id, principal.scope.shopId), eq(auditRounds.status, 'decided'));
+    case 'rounds':
+      return eq(auditRounds.auditorId, principal.id);
   }
 }
 

@@ -24,15 +24,17 @@ import type {
 import { lotJobIds } from '../../audits/sampling';
 import { db } from '../../db';
 import type { Principal } from '../../principal';
+import { shopFilter } from '../scope';
 import { formItems } from './forms';
 import { findRound, roundColumns, roundScope, toRoundRow, type RoundRow } from './round-row';
 
-/** The rounds the caller sees, newest period first. */
+/** The rounds the caller sees, newest period first; 404 for a shop filter outside the caller's shops. */
 export async function listRounds(
   principal: Principal,
   query: RoundListQuery = {},
 ): Promise<RoundRow[]> {
   const conn = await db();
+  await shopFilter(principal, query.shopId, conn);
   const rows = await conn
     .select(roundColumns())
     .from(auditRounds)

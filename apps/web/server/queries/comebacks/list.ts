@@ -10,7 +10,7 @@ import type { ComebackListQuery, ComebackStatusValue } from '~/lib/validators/co
 import { insideWindow } from '../../comebacks/detect';
 import { loadComebackSettings } from '../../comebacks/settings';
 import { db } from '../../db';
-import { notFound } from '../../errors';
+import { shopFilter } from '../scope';
 import type { Principal } from '../../principal';
 import {
   DAY,
@@ -178,9 +178,9 @@ export async function listComebacks(
   now = new Date(),
 ): Promise<ComebackList> {
   const conn = await db();
+  const chosen = await shopFilter(principal, query.shop, conn);
   const inScope = await scopeShops(principal);
-  if (query.shop !== undefined && !inScope.some((s) => s.id === query.shop)) throw notFound('shop');
-  const shopIds = query.shop !== undefined ? [query.shop] : inScope.map((s) => s.id);
+  const shopIds = chosen ? [chosen.id] : inScope.map((s) => s.id);
   const settings = await loadComebackSettings(conn);
   const byShop = shopIds.length ? inArray(comebacks.originalShopId, shopIds) : sql<boolean>`false`;
   const where = and(

@@ -196,7 +196,8 @@ async function openWork(conn: Db, shopId: number, asOf: Date) {
 /**
  * `GET /api/shops/{id}/metrics`: one shop's figures for the period, judged against the whole
  * network, with its turnaround histogram, the comebacks of jobs collected in the period, revenue
- * per bench hour by technician and by service, and its open work. Outside the scope: not found.
+ * per bench hour by technician (a technician: their own row only) and by service, and its open
+ * work. Outside the scope: not found.
  */
 export async function shopMetrics(
   principal: Principal,
@@ -210,13 +211,17 @@ export async function shopMetrics(
   if (index < 0) throw notFound('shop');
   const figures = net.figures[index]!;
   const rate = figures.shop.labourRateCents;
-  const [values, comebacks, byTechnician, byServiceType, open] = await Promise.all([
+  const [values, comebacks, allTechnicians, byServiceType, open] = await Promise.all([
     turnaroundValues(conn, shopId, period),
     periodComebacks(conn, shopId, period, asOf, net.settings),
     revenueGroups(conn, shopId, period, rate, 'technician'),
     revenueGroups(conn, shopId, period, rate, 'service'),
     openWork(conn, shopId, asOf),
   ]);
+  const ownTechnicianOnly = principal.role === 'technician';
+  const byTechnician = ownTechnicianOnly
+    ? allTechnicians.filter((g) => g.key === String(principal.id))
+    : allTechnicians;
   return {
     period: { ...period, asOf: asOf.toISOString() },
     settings: net.settings,
@@ -225,6 +230,7 @@ export async function shopMetrics(
     histogram: turnaroundHistogram(values.customer, values.bench),
     comebacks,
     byTechnician,
+    ownTechnicianOnly,
     byServiceType,
     ...open,
   };

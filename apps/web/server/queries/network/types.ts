@@ -233,7 +233,10 @@ export interface ShopMetricsResult {
   figures: ShopFigures;
   histogram: { binMinutes: number; bins: HistogramBin[] };
   comebacks: ShopComeback[];
+  /** Per technician; a technician caller gets only their own row, never a colleague's money. */
   byTechnician: RevenueGroup[];
+  /** True when `byTechnician` holds only the caller's own row (a technician). */
+  ownTechnicianOnly: boolean;
   byServiceType: RevenueGroup[];
   /** Jobs not collected yet, by state, now. */
   openCounts: Record<OpenJob['state'], number>;

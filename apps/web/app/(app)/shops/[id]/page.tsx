@@ -1,7 +1,8 @@
 import { dehydrate, HydrationBoundary, QueryClient } from '@tanstack/react-query';
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { PageHeader } from '~/components/ui';
+import { NotAllowed, PageHeader } from '~/components/ui';
+import { can } from '~/lib/permissions';
 import { shopMetricsQuery, shopTrendsQuery } from '~/lib/queries/network';
 import { idParam } from '~/lib/validators/common';
 import { TREND_METRICS } from '~/lib/validators/network';
@@ -32,6 +33,7 @@ export default async function ShopPage(props: {
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
   const principal = await requirePagePrincipal();
+  if (!can(principal.role, 'shops:read')) return <NotAllowed />;
   const id = idParam.safeParse((await props.params).id);
   if (!id.success) notFound();
   const asOf = new Date();

@@ -297,7 +297,11 @@ export function ShopView(props: {
           <div className="grid grid-cols-[minmax(0,1fr)] gap-8 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
             <RevenueGroups
               id="revenue-technician"
-              title={`Revenue per bench hour by technician, ${period}`}
+              title={
+                m.ownTechnicianOnly
+                  ? `Your revenue per bench hour, ${period}`
+                  : `Revenue per bench hour by technician, ${period}`
+              }
               groups={m.byTechnician}
               first="Technician"
             />
