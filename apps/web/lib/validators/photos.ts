@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idNumber, text } from './common';
 
 export const PHOTO_STAGES = ['check_in', 'teardown', 'reassembly'] as const;
 export type PhotoStage = (typeof PHOTO_STAGES)[number];
@@ -14,7 +15,7 @@ export const PHOTO_MAX_BYTES = 10 * 1024 * 1024;
 export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'image/heic', 'image/heif'];
 export const PHOTO_TYPES_TEXT = 'JPEG, PNG, WebP or HEIC';
 
-export const photoUploadRequest = z.object({
+export const photoUploadRequest = z.strictObject({
   stage: z.enum(PHOTO_STAGES, { error: 'Choose check-in, teardown or reassembly' }),
   // What the browser says the file is; only a first filter, the bytes decide later.
   contentType: z
@@ -28,12 +29,12 @@ export const photoUploadRequest = z.object({
     .int()
     .min(1, 'The file is empty')
     .max(PHOTO_MAX_BYTES, 'The photo is larger than 10 MB'),
-  fileName: z.string().max(255).optional(),
+  fileName: text().max(255).optional(),
 });
 export type PhotoUploadRequest = z.infer<typeof photoUploadRequest>;
 
-export const photoConfirmRequest = z.object({
-  confirm: z.number().int().positive(),
+export const photoConfirmRequest = z.strictObject({
+  confirm: idNumber,
 });
 
 /**
