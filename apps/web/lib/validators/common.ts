@@ -48,11 +48,7 @@ export const idNumber = z
 
 /** A whole JSON number in [min, max]; no booleans, strings or fractions. */
 export const wholeNumber = (min: number, max: number, error = 'A whole number') =>
-  z
-    .number({ error })
-    .int(error)
-    .min(min, `At least ${min}`)
-    .max(max, `At most ${max}`);
+  z.number({ error }).int(error).min(min, `At least ${min}`).max(max, `At most ${max}`);
 
 /** A whole number in a query string: digits only, in [min, max]. */
 export const queryInt = (min: number, max: number, error = 'Must be a whole number') =>
@@ -64,11 +60,7 @@ export const queryInt = (min: number, max: number, error = 'Must be a whole numb
 
 /** Money in integer cents, 0 to `max`. */
 export const cents = (max: number, error = 'Cents as a whole number') =>
-  z
-    .number({ error })
-    .int(error)
-    .min(0, 'Cannot be negative')
-    .max(max, `At most ${max} cents`);
+  z.number({ error }).int(error).min(0, 'Cannot be negative').max(max, `At most ${max} cents`);
 
 /** Earliest and latest dates and months the app takes: far past any reel's service history. */
 export const FIRST_DATE = '2000-01-01';

@@ -268,7 +268,8 @@ const rowSchema = z.object({
   findings: text(4000),
 });
 
-const UNSTORABLE = 'Contains a character that cannot be stored (a NUL byte): check how the file was exported';
+const UNSTORABLE =
+  'Contains a character that cannot be stored (a NUL byte): check how the file was exported';
 
 export interface ValidateOptions {
   timeZone: string;

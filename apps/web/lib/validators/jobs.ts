@@ -164,7 +164,10 @@ export const partInput = z.strictObject({
   name: text().trim().min(1, 'Enter the part’s name').max(120),
   partNumber: optionalText(40, 'Part number'),
   quantity: wholeNumber(1, 999),
-  unitPriceCents: cents(1_000_000, 'Enter a price in whole cents').max(1_000_000, 'At most $10,000'),
+  unitPriceCents: cents(1_000_000, 'Enter a price in whole cents').max(
+    1_000_000,
+    'At most $10,000',
+  ),
 });
 export type PartInput = z.infer<typeof partInput>;
 

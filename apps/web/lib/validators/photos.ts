@@ -18,8 +18,7 @@ export const PHOTO_TYPES_TEXT = 'JPEG, PNG, WebP or HEIC';
 export const photoUploadRequest = z.strictObject({
   stage: z.enum(PHOTO_STAGES, { error: 'Choose check-in, teardown or reassembly' }),
   // What the browser says the file is; only a first filter, the bytes decide later.
-  contentType: z
-    .string()
+  contentType: text()
     .max(100)
     .refine((t) => t === '' || t === 'application/octet-stream' || t.startsWith('image/'), {
       message: `Only photos can be uploaded (${PHOTO_TYPES_TEXT})`,
