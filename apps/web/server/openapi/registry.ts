@@ -85,6 +85,15 @@ export const importForm = z.object({
 });
 
 export const ROUTES: readonly RouteSpec[] = [
+  ...(['get', 'post', 'put', 'patch', 'delete'] as const).map((method): RouteSpec => ({
+    method,
+    path: '/api/{path}',
+    summary: 'Any path no route answers: 404 as a problem document',
+    permission: 'public',
+    catchAll: true,
+    status: 404,
+    notFuzzed: 'answers 404 to everything; its test sends unknown paths',
+  })),
   {
     method: 'get',
     path: '/api/audit-forms',
