@@ -74,8 +74,8 @@ export function isCalendarDate(value: string): boolean {
 
 /** A local calendar date "YYYY-MM-DD" that exists, between 2000 and 2099. */
 export const localDate = z
-  .string({ error: 'Enter a date' })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Use a date like 2026-04-01', abort: true })
+  .string({ error: 'Give a date as YYYY-MM-DD' })
+  .regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Give a date as YYYY-MM-DD', abort: true })
   .refine(isCalendarDate, 'Not a calendar date')
   .refine((s) => s >= FIRST_DATE && s <= LAST_DATE, 'Pick a date between 2000 and 2099');
 

@@ -1,4 +1,5 @@
 import { NextRequest } from 'next/server';
+import { renderToStaticMarkup } from 'react-dom/server';
 import { readdirSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it, vi } from 'vitest';
@@ -83,5 +84,14 @@ describe('OpenAPI document', () => {
         schema: expect.objectContaining({ pattern: '^[1-9][0-9]{0,9}$' }),
       }),
     ]);
+  });
+
+  it('signed-in user – the API reference page lists every route with its parameters and body, with no script', async () => {
+    const { default: ApiReferencePage } = await import('~/app/(app)/api-reference/page');
+    const html = renderToStaticMarkup(await ApiReferencePage());
+    for (const spec of ROUTES) expect(html, spec.path).toContain(spec.path.replace(/'/g, '&#x27;'));
+    expect(html).toContain('promisedOn');
+    expect(html).toContain('pattern ^[1-9][0-9]{0,9}$');
+    expect(html).not.toContain('<script');
   });
 });
