@@ -35,6 +35,9 @@ const schema = z.object({
   STRIPE_API_BASE: z.url().optional(),
   // Public address of the app for links in e-mail (unsubscribe); default NEXTAUTH_URL.
   APP_BASE_URL: z.url().optional(),
+  // Tests: generated requests per route in the route fuzz tests (default 1,000 under CI, else 100).
+  CI: z.string().optional(),
+  FUZZ_RUNS: z.coerce.number().int().min(1).max(100_000).optional(),
 });
 
 const isBuild = process.env.NEXT_PHASE === 'phase-production-build';
@@ -59,6 +62,8 @@ function load() {
     STRIPE_WEBHOOK_SECRET: process.env.STRIPE_WEBHOOK_SECRET || undefined,
     STRIPE_API_BASE: process.env.STRIPE_API_BASE || undefined,
     APP_BASE_URL: process.env.APP_BASE_URL || undefined,
+    CI: process.env.CI || undefined,
+    FUZZ_RUNS: process.env.FUZZ_RUNS || undefined,
   });
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);

@@ -1,7 +1,7 @@
 import { NextRequest } from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type * as EnvModule from '~/env';
-import * as unknownRoute from '~/app/api/[...unknown]/route';
+import * as unknownRoute from '~/app/api/[...path]/route';
 import * as importRoute from '~/app/api/imports/jobs/route';
 import * as partsRoute from '~/app/api/jobs/[id]/parts/route';
 import * as jobRoute from '~/app/api/jobs/[id]/route';

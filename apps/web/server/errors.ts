@@ -34,10 +34,14 @@ export const badRequest = (detail: string, fieldErrors?: FieldError[]) =>
   new ApiError(400, 'invalid-input', 'Invalid input', detail, fieldErrors);
 
 export function fieldErrorsOf(error: ZodError, prefix?: string): FieldError[] {
-  return error.issues.map((issue) => ({
-    field: [prefix, ...issue.path.map(String)].filter(Boolean).join('.') || '(root)',
-    message: issue.message,
-  }));
+  const name = (path: PropertyKey[]) =>
+    [prefix, ...path.map(String)].filter(Boolean).join('.') || '(root)';
+  // A strict object's unknown keys: one error per key, under the key's own name.
+  return error.issues.flatMap((issue) =>
+    issue.code === 'unrecognized_keys'
+      ? issue.keys.map((key) => ({ field: name([...issue.path, key]), message: 'Unknown field' }))
+      : [{ field: name(issue.path), message: issue.message }],
+  );
 }
 
 export function problemResponse(error: unknown, instance?: string): Response {

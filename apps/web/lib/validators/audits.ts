@@ -1,6 +1,8 @@
 import { AQLS } from '@reelwright/metrics';
 import { z } from 'zod';
-import { idParam } from './common';
+import { idNumber, idParam, localDate, text } from './common';
+
+export { localDate };
 
 // Zod schemas shared by the audit screens and the audit and corrective-action route handlers.
 
@@ -20,41 +22,23 @@ export type CorrectiveActionStatusValue = (typeof CORRECTIVE_ACTION_STATUSES)[nu
 /** The AQL columns of the standard's tables, as the planning form offers them. */
 export const AQL_CHOICES = AQLS;
 
-/** A local calendar date, "YYYY-MM-DD", that exists. */
-export const localDate = z
-  .string({ error: 'Enter a date' })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use the form YYYY-MM-DD')
-  .refine((value) => {
-    const [y, m, d] = value.split('-').map(Number) as [number, number, number];
-    const date = new Date(Date.UTC(y, m - 1, d));
-    return (
-      y >= 2000 &&
-      y <= 2100 &&
-      date.getUTCFullYear() === y &&
-      date.getUTCMonth() === m - 1 &&
-      date.getUTCDate() === d
-    );
-  }, 'Not a calendar date');
-
 /** Longest period a round may cover: a lot is a batch of work, not a shop's whole history. */
 export const MAX_PERIOD_DAYS = 366;
 
 const dayNumber = (value: string) => Date.parse(`${value}T00:00:00Z`) / 86_400_000;
 
-const aql = z.coerce
-  .number({ error: 'Choose an AQL' })
-  .refine(
-    (v) => AQLS.some((a) => Math.abs(a - v) <= a * 1e-9),
-    `Choose one of the standard's AQLs: ${AQLS.join(', ')}`,
-  );
+const isAql = (v: number) => AQLS.some((a) => Math.abs(a - v) <= a * 1e-9);
+const AQL_MESSAGE = `Choose one of the standard's AQLs: ${AQLS.join(', ')}`;
+/** In a query string: a plain decimal such as 0.65. */
+const aqlText = z
+  .string({ error: 'Choose an AQL' })
+  .regex(/^\d{1,3}(\.\d{1,3})?$/, { error: AQL_MESSAGE, abort: true })
+  .transform(Number)
+  .refine(isAql, AQL_MESSAGE);
+/** In a JSON body: a number. */
+const aqlNumber = z.number({ error: 'Choose an AQL' }).refine(isAql, AQL_MESSAGE);
 
-const periodFields = {
-  shopId: idParam,
-  from: localDate,
-  to: localDate,
-  aql: aql.optional(),
-  level: z.enum(INSPECTION_LEVELS, { error: 'Choose an inspection level' }).optional(),
-};
+const level = z.enum(INSPECTION_LEVELS, { error: 'Choose an inspection level' });
 
 function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) {
   const from = dayNumber(value.from);
@@ -76,13 +60,27 @@ function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) 
 }
 
 /** Query of GET /api/audit-rounds/preview: what a round for this shop and period would be. */
-export const planPreviewQuery = z.object(periodFields).superRefine(checkPeriod);
+export const planPreviewQuery = z
+  .object({
+    shopId: idParam,
+    from: localDate,
+    to: localDate,
+    aql: aqlText.optional(),
+    level: level.optional(),
+  })
+  .superRefine(checkPeriod);
 export type PlanPreviewQuery = z.infer<typeof planPreviewQuery>;
 
 /** Body of POST /api/audit-rounds. */
 export const planRoundInput = z
-  .object({ ...periodFields, auditorId: idParam })
-  .strict()
+  .strictObject({
+    shopId: idNumber,
+    from: localDate,
+    to: localDate,
+    aql: aqlNumber.optional(),
+    level: level.optional(),
+    auditorId: idNumber,
+  })
   .superRefine(checkPeriod);
 export type PlanRoundInput = z.infer<typeof planRoundInput>;
 
@@ -97,10 +95,10 @@ export const samplePhotoParams = roundSampleParams.extend({ photoId: idParam });
 
 const NOTE_MAX = 2000;
 
-export const sampleAnswer = z.object({
-  itemId: idParam,
+export const sampleAnswer = z.strictObject({
+  itemId: idNumber,
   result: z.enum(ANSWER_RESULTS, { error: 'Choose pass, fail or not applicable' }),
-  note: z.string().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
+  note: text().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
 });
 
 /**
@@ -110,7 +108,7 @@ export const sampleAnswer = z.object({
 export const sampleAnswersInput = z
   .object({
     answers: z.array(sampleAnswer).max(200),
-    note: z.string().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
+    note: text().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
     final: z.boolean().optional(),
   })
   .strict()
@@ -138,15 +136,14 @@ export type CorrectiveActionListQuery = z.infer<typeof correctiveActionListQuery
 
 const correctiveActionFields = {
   status: z.enum(CORRECTIVE_ACTION_STATUSES, { error: 'Not a status' }).optional(),
-  resolutionNote: z.string().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
-  description: z
-    .string()
+  resolutionNote: text().trim().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
+  description: text()
     .trim()
     .min(1, 'Describe the action')
     .max(NOTE_MAX, `At most ${NOTE_MAX} characters`)
     .optional(),
   dueOn: localDate.optional(),
-  ownerId: idParam.nullable().optional(),
+  ownerId: idNumber.nullable().optional(),
 };
 
 const somethingToChange = (v: Record<string, unknown>) =>
@@ -161,22 +158,21 @@ export type CorrectiveActionPatch = z.infer<typeof correctiveActionPatch>;
 
 /** Body of PATCH /api/corrective-actions: the same, with the id in the body. */
 export const correctiveActionPatchWithId = z
-  .object({ id: idParam, ...correctiveActionFields })
+  .object({ id: idNumber, ...correctiveActionFields })
   .strict()
   .refine(somethingToChange, 'Nothing to change');
 
-export const auditFormItemInput = z.object({
-  code: z
-    .string()
+export const auditFormItemInput = z.strictObject({
+  code: text()
     .trim()
     .regex(
       /^[a-z][a-z0-9_]*(\.[a-z0-9_]+)*$/,
       'Lower-case words joined by dots, e.g. drag.serviced',
     )
     .max(60),
-  title: z.string().trim().min(3, 'Give the item a title').max(200),
-  guidance: z.string().trim().max(500).optional(),
-  weight: z.coerce
+  title: text().trim().min(3, 'Give the item a title').max(200),
+  guidance: text().trim().max(500).optional(),
+  weight: z
     .number({ error: 'Enter a weight' })
     .int('A whole number')
     .min(1, 'At least 1')
@@ -187,7 +183,7 @@ export const auditFormItemInput = z.object({
 /** Body of POST /api/audit-forms: the next version of the audit form. */
 export const auditFormInput = z
   .object({
-    title: z.string().trim().min(3, 'Give the form a title').max(200),
+    title: text().trim().min(3, 'Give the form a title').max(200),
     items: z.array(auditFormItemInput).min(1, 'The form needs at least one item').max(60),
   })
   .strict()

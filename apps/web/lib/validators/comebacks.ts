@@ -1,6 +1,5 @@
 import { z } from 'zod';
-import { localDate } from './audits';
-import { idParam } from './common';
+import { idNumber, idParam, localDate, MAX_INT, text } from './common';
 
 // Zod schemas shared by the comeback screens and the comeback and settings route handlers.
 
@@ -70,8 +69,7 @@ export function parseDismissal(text: string | null): {
 }
 
 const optionalText = (max: number, label: string) =>
-  z
-    .string({ error: `${label} must be text` })
+  text(`${label} must be text`)
     .trim()
     .max(max, `${label} must be at most ${max} characters`)
     .transform((s) => (s ? s : null))
@@ -86,23 +84,23 @@ export const comebackListQuery = z.object({
 export type ComebackListQuery = z.infer<typeof comebackListQuery>;
 
 /** `POST /api/jobs/{id}/comeback-of`: link a return job to the earlier job by hand. */
-export const comebackLinkInput = z.object({
-  originalJobId: idParam,
+export const comebackLinkInput = z.strictObject({
+  originalJobId: idNumber,
   symptom: optionalText(500, 'The symptom'),
 });
 export type ComebackLinkInput = z.infer<typeof comebackLinkInput>;
 
-export const correctiveActionFromComeback = z.object({
-  title: z
-    .string({ error: 'Give the action a title' })
+export const correctiveActionFromComeback = z.strictObject({
+  title: text('Give the action a title')
     .trim()
     .min(3, 'Give the action a title')
     .max(160, 'At most 160 characters'),
   description: optionalText(2000, 'The description'),
-  ownerId: z.coerce
+  ownerId: z
     .number({ error: 'Choose who owns the action' })
     .int('Choose who owns the action')
-    .positive('Choose who owns the action'),
+    .min(1, 'Choose who owns the action')
+    .max(MAX_INT, 'Too large'),
   dueOn: localDate,
 });
 
@@ -121,12 +119,12 @@ export const comebackPatch = z
       .optional(),
     dismissNote: optionalText(500, 'The note'),
     attribution: z.enum(ATTRIBUTIONS, { error: 'Choose an attribution' }).nullable().optional(),
-    rootCauseId: idParam.nullable().optional(),
+    rootCauseId: idNumber.nullable().optional(),
     rootCauseNote: optionalText(1000, 'The root cause note'),
-    checklistStepId: idParam.nullable().optional(),
+    checklistStepId: idNumber.nullable().optional(),
     disposition: z.enum(DISPOSITIONS, { error: 'Choose a disposition' }).nullable().optional(),
     symptom: optionalText(500, 'The symptom'),
-    assigneeId: idParam.nullable().optional(),
+    assigneeId: idNumber.nullable().optional(),
     correctiveAction: correctiveActionFromComeback.optional(),
   })
   .strict()
@@ -149,35 +147,29 @@ export const comebackPatch = z
 export type ComebackPatch = z.infer<typeof comebackPatch>;
 export type ComebackPatchInput = z.input<typeof comebackPatch>;
 
-export const rootCauseInput = z.object({
+export const rootCauseInput = z.strictObject({
   /** Absent for a new root cause. */
-  id: idParam.optional(),
-  label: z
-    .string({ error: 'Name the root cause' })
+  id: idNumber.optional(),
+  label: text('Name the root cause')
     .trim()
     .min(2, 'Name the root cause')
     .max(80, 'At most 80 characters'),
   active: z.boolean({ error: 'Active is true or false' }).default(true),
 });
 
+const days = (max: number) =>
+  z
+    .number({ error: 'Enter a whole number of days' })
+    .int('Enter a whole number of days')
+    .min(1, 'At least 1 day')
+    .max(max, `At most ${max} days`);
+
 /** `PUT /api/settings/comebacks`: the owner's comeback settings and root cause list, in order. */
 export const comebackSettingsInput = z
-  .object({
-    warrantyDays: z
-      .number({ error: 'Enter a whole number of days' })
-      .int('Enter a whole number of days')
-      .min(1, 'At least 1 day')
-      .max(365, 'At most 365 days'),
-    reviewDeadlineDays: z
-      .number({ error: 'Enter a whole number of days' })
-      .int('Enter a whole number of days')
-      .min(1, 'At least 1 day')
-      .max(60, 'At most 60 days'),
-    correctiveActionDueDays: z
-      .number({ error: 'Enter a whole number of days' })
-      .int('Enter a whole number of days')
-      .min(1, 'At least 1 day')
-      .max(180, 'At most 180 days'),
+  .strictObject({
+    warrantyDays: days(365),
+    reviewDeadlineDays: days(60),
+    correctiveActionDueDays: days(180),
     countedAttributions: z
       .array(z.enum(ATTRIBUTIONS, { error: 'Unknown attribution' }), {
         error: 'Choose the attributions that count',

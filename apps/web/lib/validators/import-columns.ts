@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from './common';
 
 // The CSV import of past jobs, its columns: the fields a file's columns map to, with their labels
 // and hints (the template and the mapping screen show them), the file limits, and the mapping.
@@ -159,7 +160,7 @@ export function guessMapping(headers: readonly string[]): Partial<Record<ImportF
 
 /** Field → file header; a field left out is not in the file. */
 export const columnMappingSchema = z
-  .partialRecord(z.enum(IMPORT_FIELD_KEYS as [ImportField, ...ImportField[]]), z.string().min(1))
+  .partialRecord(z.enum(IMPORT_FIELD_KEYS as [ImportField, ...ImportField[]]), text().min(1))
   .superRefine((mapping, ctx) => {
     for (const key of REQUIRED_IMPORT_FIELDS) {
       if (!mapping[key]) {

@@ -1,6 +1,7 @@
 import { tzOffset } from '@date-fns/tz';
 import { z } from 'zod';
 import { JOB_STATE_LABELS, REEL_KIND_LABELS, SERVICE_LABELS, type JobState } from '../labels';
+import { isStorableText } from './common';
 import { IMPORT_FIELDS, IMPORT_FIELD_KEYS, type ImportField } from './import-columns';
 
 // The CSV import of past jobs: the checks every row gets (import-columns.ts has the fields).
@@ -267,6 +268,9 @@ const rowSchema = z.object({
   findings: text(4000),
 });
 
+const UNSTORABLE =
+  'Contains a character that cannot be stored (a NUL byte): check how the file was exported';
+
 export interface ValidateOptions {
   timeZone: string;
   /** Nothing may happen after this instant (the moment of the import). */
@@ -296,11 +300,22 @@ export function validateImportRows(
   rows.forEach((raw, index) => {
     const row = offset + index + 2;
     const before = errors.length;
-    const fail = (field: ImportField, message: string) =>
-      errors.push({ row, column: columnOf(field), message });
+    // A cell the database cannot store (a NUL) is reported once, and never echoed in a message.
+    const unstorable = new Set<ImportField>();
+    const fail = (field: ImportField, message: string) => {
+      if (!unstorable.has(field)) errors.push({ row, column: columnOf(field), message });
+    };
 
     const input: Record<string, string> = {};
-    for (const key of IMPORT_FIELD_KEYS) input[key] = (raw[key] ?? '').trim();
+    for (const key of IMPORT_FIELD_KEYS) {
+      const cell = (raw[key] ?? '').trim();
+      if (isStorableText(cell)) input[key] = cell;
+      else {
+        errors.push({ row, column: columnOf(key), message: UNSTORABLE });
+        unstorable.add(key);
+        input[key] = '';
+      }
+    }
     const parsed = rowSchema.safeParse(input);
     if (!parsed.success) {
       for (const issue of parsed.error.issues) {

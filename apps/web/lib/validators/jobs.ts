@@ -1,6 +1,15 @@
 import { z } from 'zod';
 import { JOB_STATES, type JobState } from '../labels';
-import { idParam } from './common';
+import {
+  cents,
+  idNumber,
+  idParam,
+  localDate,
+  optionalText,
+  queryInt,
+  text,
+  wholeNumber,
+} from './common';
 
 export const SERVICE_TYPES = ['tune_up', 'overhaul', 'repair', 'parts_install'] as const;
 export type ServiceType = (typeof SERVICE_TYPES)[number];
@@ -32,19 +41,6 @@ export const OPEN_STATES: readonly JobState[] = [
 
 export const canMove = (from: JobState, to: JobState) => NEXT_STATES[from].includes(to);
 
-const localDate = z
-  .string()
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-04-01')
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Not a calendar date');
-
-const optionalText = (max: number, label: string) =>
-  z
-    .string()
-    .trim()
-    .max(max, `${label} must be at most ${max} characters`)
-    .transform((s) => (s ? s : undefined))
-    .optional();
-
 const SORTS = ['checkedInAt', 'promisedAt', 'stateChangedAt', 'customer', 'id'] as const;
 export type JobSort = (typeof SORTS)[number];
 export const PAGE_SIZES = [25, 50, 100] as const;
@@ -52,17 +48,14 @@ export const PAGE_SIZES = [25, 50, 100] as const;
 /** `GET /api/jobs` query; the bench list keeps the same keys in its URL. */
 export const jobListQuery = z
   .object({
-    page: z.coerce.number().int().min(1, 'Pages start at 1').max(100_000).default(1),
-    pageSize: z.coerce
-      .number()
-      .int()
+    page: queryInt(1, 100_000, 'Pages start at 1').default(1),
+    pageSize: queryInt(1, 100)
       .refine((n) => (PAGE_SIZES as readonly number[]).includes(n), 'Page size is 25, 50 or 100')
       .default(25),
     sort: z.enum(SORTS).default('checkedInAt'),
     dir: z.enum(['asc', 'desc']).default('desc'),
     /** Comma-separated states; none means every state. */
-    state: z
-      .string()
+    state: text()
       .optional()
       .transform((s, ctx) => {
         if (!s) return undefined;
@@ -81,7 +74,7 @@ export const jobListQuery = z
     from: localDate.optional(),
     to: localDate.optional(),
     /** Only jobs that have sat in their current (open) state longer than this many days. */
-    waitingDays: z.coerce.number().int().min(1, 'At least 1 day').max(365).optional(),
+    waitingDays: queryInt(1, 365, 'A whole number of days').optional(),
     q: optionalText(100, 'Search'),
   })
   .refine((v) => !v.from || !v.to || v.from <= v.to, {
@@ -91,8 +84,8 @@ export const jobListQuery = z
 export type JobListQuery = z.infer<typeof jobListQuery>;
 export type JobListParams = z.input<typeof jobListQuery>;
 
-export const customerInput = z.object({
-  name: z.string().trim().min(1, 'Enter the customer’s name').max(120),
+export const customerInput = z.strictObject({
+  name: text().trim().min(1, 'Enter the customer’s name').max(120),
   phone: optionalText(40, 'Phone').refine(
     (s) => !s || /^[0-9+() .-]{5,40}$/.test(s),
     'Digits, spaces and + ( ) - only',
@@ -104,17 +97,12 @@ export const customerInput = z.object({
   reminderConsent: z.boolean().default(false),
 });
 
-export const reelInput = z.object({
+export const reelInput = z.strictObject({
   kind: z.enum(REEL_KINDS, { error: 'Choose the kind of reel' }),
-  maker: z.string().trim().min(1, 'Enter the maker').max(80),
-  model: z.string().trim().min(1, 'Enter the model').max(80),
+  maker: text().trim().min(1, 'Enter the maker').max(80),
+  model: text().trim().min(1, 'Enter the model').max(80),
   size: optionalText(20, 'Size'),
-  bearingCount: z
-    .number({ error: 'A whole number' })
-    .int('A whole number')
-    .min(0, 'Cannot be negative')
-    .max(40, 'At most 40')
-    .optional(),
+  bearingCount: wholeNumber(0, 40).optional(),
   gearRatio: optionalText(10, 'Gear ratio').refine(
     (s) => !s || /^\d{1,2}(\.\d{1,2})?:1$/.test(s),
     'Write it as printed, e.g. 6.2:1',
@@ -125,38 +113,33 @@ export const reelInput = z.object({
   water: z.enum(['salt', 'fresh']).default('fresh'),
 });
 
-export const checkInInput = z.object({
-  customer: z.union([z.object({ id: idParam }), customerInput]),
-  reel: z.union([z.object({ id: idParam }), reelInput]),
+export const checkInInput = z.strictObject({
+  customer: z.union([z.strictObject({ id: idNumber }), customerInput]),
+  reel: z.union([z.strictObject({ id: idNumber }), reelInput]),
   serviceType: z.enum(SERVICE_TYPES, { error: 'Choose a service' }),
   complaint: optionalText(2000, 'Complaint'),
   condition: optionalText(2000, 'Condition'),
-  technicianId: idParam.optional(),
+  technicianId: idNumber.optional(),
   /** Local date in the shop's zone; the promise is the shop's closing time that day. */
   promisedOn: localDate,
 });
 export type CheckInInput = z.infer<typeof checkInInput>;
 
 export const jobPatch = z
-  .object({
-    findings: z.string().trim().max(4000).nullable().optional(),
-    complaint: z.string().trim().max(2000).nullable().optional(),
-    condition: z.string().trim().max(2000).nullable().optional(),
-    technicianId: idParam.nullable().optional(),
+  .strictObject({
+    findings: text().trim().max(4000).nullable().optional(),
+    complaint: text().trim().max(2000).nullable().optional(),
+    condition: text().trim().max(2000).nullable().optional(),
+    technicianId: idNumber.nullable().optional(),
     promisedOn: localDate.optional(),
     /** Sets the labour charge: bench time × posted rate, or the service's flat price. */
     labourBasis: z.enum(['bench_time', 'flat_price']).optional(),
-    discountCents: z
-      .number({ error: 'Cents as a whole number' })
-      .int('Cents as a whole number')
-      .min(0, 'Cannot be negative')
-      .max(10_000_000)
-      .optional(),
+    discountCents: cents(10_000_000).optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), 'Nothing to change');
 export type JobPatch = z.infer<typeof jobPatch>;
 
-export const transitionInput = z.object({
+export const transitionInput = z.strictObject({
   to: z.enum(JOB_STATES, { error: 'Unknown state' }),
   /** Why required checklist steps are unticked when marking ready. */
   reason: optionalText(1000, 'Reason'),
@@ -165,8 +148,8 @@ export const transitionInput = z.object({
 export type TransitionInput = z.infer<typeof transitionInput>;
 
 export const benchSessionInput = z.union([
-  z.object({ action: z.enum(['start', 'stop']) }),
-  z.object({
+  z.strictObject({ action: z.enum(['start', 'stop']) }),
+  z.strictObject({
     minutes: z
       .number({ error: 'Minutes as a whole number' })
       .int('Minutes as a whole number')
@@ -177,26 +160,21 @@ export const benchSessionInput = z.union([
 ]);
 export type BenchSessionInput = z.infer<typeof benchSessionInput>;
 
-export const partInput = z.object({
-  name: z.string().trim().min(1, 'Enter the part’s name').max(120),
+export const partInput = z.strictObject({
+  name: text().trim().min(1, 'Enter the part’s name').max(120),
   partNumber: optionalText(40, 'Part number'),
-  quantity: z
-    .number({ error: 'A whole number' })
-    .int('A whole number')
-    .min(1, 'At least 1')
-    .max(999, 'At most 999'),
-  unitPriceCents: z
-    .number({ error: 'Enter a price' })
-    .int('Whole cents')
-    .min(0, 'Cannot be negative')
-    .max(1_000_000, 'At most $10,000'),
+  quantity: wholeNumber(1, 999),
+  unitPriceCents: cents(1_000_000, 'Enter a price in whole cents').max(
+    1_000_000,
+    'At most $10,000',
+  ),
 });
 export type PartInput = z.infer<typeof partInput>;
 
 export const partParams = z.object({ id: idParam, partId: idParam });
 
-export const checklistInput = z.object({
-  stepIds: z.array(idParam).max(200),
+export const checklistInput = z.strictObject({
+  stepIds: z.array(idNumber).max(200),
 });
 export type ChecklistInput = z.infer<typeof checklistInput>;
 

@@ -1,12 +1,7 @@
 import { z } from 'zod';
+import { month, text } from './common';
 
-const MONTH = /^(\d{4})-(0[1-9]|1[0-2])$/;
-
-/** A calendar month "YYYY-MM" (2000–2099). */
-export const month = z
-  .string()
-  .regex(MONTH, 'Use a month like 2026-11')
-  .refine((m) => m >= '2000-01' && m <= '2099-12', 'Pick a month between 2000 and 2099');
+export { month };
 
 export const monthParams = z.object({ month });
 
@@ -27,9 +22,8 @@ export const monthExportParams = z.object({
     .pipe(z.object({ month, format: z.enum(['json', 'csv']) })),
 });
 
-export const reopenInput = z.object({
-  reason: z
-    .string()
+export const reopenInput = z.strictObject({
+  reason: text()
     .trim()
     .min(10, 'Say in a sentence why the month is reopened (at least 10 characters)')
     .max(500, 'Keep the reason under 500 characters'),

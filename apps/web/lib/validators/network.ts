@@ -1,5 +1,7 @@
 import { z } from 'zod';
-import { idParam } from './common';
+import { idParam, isCalendarDate, localDate } from './common';
+
+export { localDate };
 
 /** Longest period the comparison accepts: five years of local dates. */
 export const MAX_PERIOD_DAYS = 1_830;
@@ -8,20 +10,9 @@ const DAY = 86_400_000;
 
 /** Day number of a "YYYY-MM-DD" civil date, or null when it is not a real calendar date. */
 export function dayNumber(date: string): number | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(date);
-  if (!m) return null;
-  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
-  const ms = Date.UTC(y, mo - 1, d);
-  const check = new Date(ms);
-  if (check.getUTCFullYear() !== y || check.getUTCMonth() !== mo - 1 || check.getUTCDate() !== d)
-    return null;
-  return ms / DAY;
+  if (!isCalendarDate(date)) return null;
+  return Date.parse(`${date}T00:00:00Z`) / DAY;
 }
-
-export const localDate = z
-  .string({ error: 'Give a date as YYYY-MM-DD' })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Give a date as YYYY-MM-DD', abort: true })
-  .refine((s) => dayNumber(s) !== null, 'Not a calendar date');
 
 function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) {
   const a = dayNumber(value.from);

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { idParam } from './common';
+import { idNumber, idParam } from './common';
 
 export const PHOTO_STAGES = ['check_in', 'teardown', 'reassembly'] as const;
 export type PhotoStage = (typeof PHOTO_STAGES)[number];
@@ -23,7 +23,7 @@ export const PHOTO_TYPES_TEXT = 'JPEG, PNG or WebP';
  */
 export const DECLARED_PHOTO_TYPE = /^image\/(?:jpeg|png|webp)$/i;
 
-export const photoUploadRequest = z.object({
+export const photoUploadRequest = z.strictObject({
   stage: z.enum(PHOTO_STAGES, { error: 'Choose check-in, teardown or reassembly' }),
   // What the browser says the file is; only a first filter, the bytes decide later.
   contentType: z
@@ -34,17 +34,12 @@ export const photoUploadRequest = z.object({
     .int()
     .min(1, 'The file is empty')
     .max(PHOTO_MAX_BYTES, 'The photo is larger than 10 MB'),
-  fileName: z.string().max(255).optional(),
+  fileName: text().max(255).optional(),
 });
 export type PhotoUploadRequest = z.infer<typeof photoUploadRequest>;
 
-export const photoConfirmRequest = z.object({
-  // A strict positive int32: the photo id column's range, so a larger number is a 400, never a 500.
-  confirm: z
-    .number({ error: 'Give the photo id as a number' })
-    .int('Must be a whole number')
-    .positive('Must be positive')
-    .max(2_147_483_647, 'Too large'),
+export const photoConfirmRequest = z.strictObject({
+  confirm: idNumber,
 });
 
 export const photoParams = z.object({ id: idParam, photoId: idParam });

@@ -1,13 +1,9 @@
 import { z } from 'zod';
-import { idParam } from './common';
+import { idNumber, idParam, queryInt } from './common';
 
 export const REMINDER_WEEKS = [2, 4, 6, 8, 12, 26] as const;
 
-const weeks = z.coerce
-  .number({ error: 'Must be a number of weeks' })
-  .int('Use whole weeks')
-  .min(1, 'At least one week')
-  .max(26, 'At most 26 weeks');
+const weeks = queryInt(1, 26, 'Must be a whole number of weeks');
 
 /** GET /api/reminders/due?shop=&weeks= — the shop defaults to the caller's own. */
 export const dueQuery = z.object({
@@ -15,9 +11,14 @@ export const dueQuery = z.object({
   weeks: weeks.default(4),
 });
 
-export const sendInput = z.object({
-  shopId: idParam.optional(),
-  weeks: weeks.default(4),
+export const sendInput = z.strictObject({
+  shopId: idNumber.optional(),
+  weeks: z
+    .number({ error: 'Must be a number of weeks' })
+    .int('Use whole weeks')
+    .min(1, 'At least one week')
+    .max(26, 'At most 26 weeks')
+    .default(4),
 });
 export type SendInput = z.infer<typeof sendInput>;
 

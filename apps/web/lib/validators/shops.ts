@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { localDate } from './audits';
+import { localDate } from './common';
 
 // The shop calendar form and PUT /api/shops/{id}/calendar: weekly opening hours and closed dates.
 
@@ -20,11 +20,11 @@ const clock = z
   .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'Use a 24-hour time such as 09:00 or 17:30.');
 
 export const openingSpan = z
-  .object({ open: clock, close: clock })
+  .strictObject({ open: clock, close: clock })
   .refine((s) => s.open < s.close, { message: 'Closing time must be after opening time.' });
 
-export const shopCalendarInput = z.object({
-  weekly: z.object(
+export const shopCalendarInput = z.strictObject({
+  weekly: z.strictObject(
     Object.fromEntries(WEEKDAYS.map((d) => [d, z.array(openingSpan).max(4)])) as Record<
       WeekdayValue,
       z.ZodArray<typeof openingSpan>

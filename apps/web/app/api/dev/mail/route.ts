@@ -1,5 +1,5 @@
 // GET /api/dev/mail – what the local SMTP catcher received (newest first) and the outbox counts; development and tests
-import { z } from 'zod';
+import { caughtMailQuery } from '~/lib/validators/mail';
 import { route } from '~/server/api';
 import { notFound } from '~/server/errors';
 import { catcherConfigured, caughtMessages, outboxSummary } from '~/server/mail/catcher';
@@ -7,7 +7,7 @@ import { catcherConfigured, caughtMessages, outboxSummary } from '~/server/mail/
 export const dynamic = 'force-dynamic';
 
 export const GET = route(
-  { permission: 'dev-mail:read', query: z.object({ to: z.email().optional() }) },
+  { permission: 'dev-mail:read', query: caughtMailQuery },
   async ({ query }) => {
     if (!catcherConfigured()) throw notFound('mail catcher');
     const [messages, outbox] = await Promise.all([caughtMessages(query.to), outboxSummary()]);

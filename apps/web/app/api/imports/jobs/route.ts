@@ -1,4 +1,5 @@
 // GET, POST /api/imports/jobs – the shop's recent imports; import a CSV of past jobs, all rows in one transaction or none
+import { isStorableText } from '~/lib/validators/common';
 import { columnMappingSchema, IMPORT_MAX_BYTES } from '~/lib/validators/import-columns';
 import { route } from '~/server/api';
 import { badRequest, fieldErrorsOf, problemResponse } from '~/server/errors';
@@ -38,6 +39,11 @@ export const POST = route(postConfig, async ({ principal, request }) => {
   if (file.size > IMPORT_MAX_BYTES) {
     throw badRequest('The file is larger than 50 MB; split it into smaller files.', [
       { field: 'file', message: 'Larger than 50 MB' },
+    ]);
+  }
+  if (!isStorableText(file.name)) {
+    throw badRequest('The file name cannot be stored; rename the file.', [
+      { field: 'file', message: 'The name contains a NUL or a broken character' },
     ]);
   }
   let rawMapping: unknown;

@@ -48,7 +48,12 @@ export function AuditFormEditor({
     event.preventDefault();
     const body = {
       title,
-      items: items.map(({ key: _key, ...i }) => ({ ...i, guidance: i.guidance || undefined })),
+      items: items.map(({ key: _key, ...i }) => ({
+        ...i,
+        guidance: i.guidance || undefined,
+        // The API takes numbers; an empty box stays missing so the form says "Enter a weight".
+        weight: i.weight === '' ? undefined : Number(i.weight),
+      })),
     };
     const parsed = auditFormInput.safeParse(body);
     if (!parsed.success) {

@@ -1,0 +1,7 @@
+// GET /api/openapi.json – the OpenAPI 3.1 document of this API, built from the routes' zod schemas; no sign-in needed
+import { openApiDocument } from '~/server/openapi/document';
+
+// Public like /api/health: it describes the API, it holds no data.
+export function GET() {
+  return Response.json(openApiDocument(), { headers: { 'cache-control': 'public, max-age=300' } });
+}
