@@ -13,9 +13,18 @@ export async function register() {
   }
   const { database } = await import('./server/db');
   const { runMigrations } = await import('@reelwright/db/client');
-  const handle = await database();
-  const applied = await runMigrations(handle);
-  console.log(
-    `Reelwright: database ${handle.driver}${env.DATABASE_URL ? '' : ' (embedded)'}, ${applied} migration(s) applied`,
-  );
+  try {
+    const handle = await database();
+    const applied = await runMigrations(handle);
+    console.log(
+      `Reelwright: database ${handle.driver}${env.DATABASE_URL ? '' : ' (embedded)'}, ${applied} migration(s) applied`,
+    );
+  } catch (error) {
+    // Exiting lets a supervisor (or the person starting it) see why, instead of a server that
+    // answers every request with an error.
+    console.error(
+      `Reelwright cannot start: ${error instanceof Error ? error.message : String(error)}`,
+    );
+    process.exit(1);
+  }
 }

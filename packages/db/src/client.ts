@@ -74,7 +74,7 @@ async function openPg(url: string, max: number): Promise<DbHandle> {
 async function openPglite(dataDir: string): Promise<DbHandle> {
   const memory = dataDir === MEMORY;
   const folder = memory ? MEMORY : path.resolve(dataDir);
-  const lock: FolderLock | null = memory ? null : lockDataDir(folder);
+  const lock: FolderLock | null = memory ? null : await lockDataDir(folder);
   try {
     const [{ PGlite }, { drizzle }] = await Promise.all([
       import('@electric-sql/pglite'),

@@ -20,9 +20,11 @@ import { db } from '../db';
 import { conflict } from '../errors';
 import type { Principal } from '../principal';
 import { bulkInsert } from './bulk';
-import { invert, refuseDuplicate, type PreparedImport } from './prepare';
+import { invert, refuseDuplicate, yieldToEventLoop, type PreparedImport } from './prepare';
 
 // The second half of a CSV job import: storing a file prepare.ts has checked.
+
+const PREPARE_BATCH = 1_000;
 
 /**
  * How far storing has got: `step` says what is being written, `fraction` is the whole import
@@ -72,6 +74,33 @@ export async function runImport(
   const conn = await db();
   const total = rows.length;
   const note = `Imported from ${file.fileName}`;
+  // Work that needs no database is done before the transaction, in slices with a turn for the
+  // event loop between them, so that the transaction holds the database only to write.
+  const timelines: ReturnType<typeof timeline>[] = [];
+  const turnarounds: (ReturnType<typeof jobTurnaround> | null)[] = [];
+  for (let i = 0; i < rows.length; i += PREPARE_BATCH) {
+    for (const row of rows.slice(i, i + PREPARE_BATCH)) {
+      timelines.push(timeline(row));
+      turnarounds.push(
+        row.readyAt
+          ? jobTurnaround(
+              {
+                checkedInAt: row.checkedInAt,
+                readyAt: row.readyAt,
+                waitingSpans: row.partsWait ? [row.partsWait] : [],
+              },
+              calendar,
+            )
+          : null,
+      );
+    }
+    await yieldToEventLoop();
+  }
+  // Between statements too: the embedded database answers without giving I/O a turn.
+  const progress = async (p: ImportProgress) => {
+    await onProgress(p);
+    await yieldToEventLoop();
+  };
 
   try {
     const summary = await conn.transaction(async (tx) => {
@@ -90,7 +119,7 @@ export async function runImport(
         .returning({ id: importBatches.id });
       const batchId = batch!.id;
 
-      await onProgress({ step: 'customers', fraction: 0, done: 0, total });
+      await progress({ step: 'customers', fraction: 0, done: 0, total });
       // Customers: the shop's own, matched by e-mail, else phone, else name.
       const known = await tx
         .select({
@@ -201,19 +230,9 @@ export async function runImport(
 
       const technicianOf = (row: ParsedImportRow) =>
         row.technicianEmail ? (prepared.technicians.get(row.technicianEmail) ?? null) : null;
-      const timelines = rows.map(timeline);
       const jobRows = rows.map((row, i) => {
         const customerId = customerOf(row);
-        const turnaround =
-          row.readyAt &&
-          jobTurnaround(
-            {
-              checkedInAt: row.checkedInAt,
-              readyAt: row.readyAt,
-              waitingSpans: row.partsWait ? [row.partsWait] : [],
-            },
-            calendar,
-          );
+        const turnaround = turnarounds[i];
         return {
           shopId: shop.id,
           customerId,
@@ -244,7 +263,7 @@ export async function runImport(
         chunk: 2500,
         returning: 'id, external_ref',
         onChunk: (done) =>
-          onProgress({ step: 'jobs', fraction: 0.12 + (0.48 * done) / total, done, total }),
+          progress({ step: 'jobs', fraction: 0.12 + (0.48 * done) / total, done, total }),
       });
       const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
 
@@ -261,14 +280,17 @@ export async function runImport(
       await bulkInsert(tx, jobEvents, eventRows, {
         chunk: 10_000,
         onChunk: (written) =>
-          onProgress({
+          progress({
             step: 'timeline',
             fraction: 0.6 + (0.37 * written) / eventRows.length,
             done: total,
             total,
           }),
       });
-      await bulkInsert(tx, benchSessions, sessionRows, { chunk: 10_000 });
+      await bulkInsert(tx, benchSessions, sessionRows, {
+        chunk: 10_000,
+        onChunk: () => yieldToEventLoop(),
+      });
 
       const seconds = (performance.now() - started) / 1000;
       await tx

@@ -99,49 +99,23 @@ export async function prepareImport(
   await refuseDuplicate(shop.id, digest, file.fileName);
 
   const text = new TextDecoder('utf-8').decode(file.bytes).replace(/^\uFEFF/, '');
-  const parsed = Papa.parse<Record<string, string>>(text, {
-    header: true,
-    skipEmptyLines: 'greedy',
-    transformHeader: (h) => h.trim(),
-  });
-  const headers = parsed.meta.fields ?? [];
-  const missing = Object.entries(file.mapping).filter(([, header]) => !headers.includes(header));
-  if (missing.length) {
+  const parsed = await parseInBatches(text, file.mapping, shop.timeZone, now);
+  if (parsed.missing.length) {
     throw badRequest(
       'The column mapping names columns the file does not have.',
-      missing.map(([field, header]) => ({
+      parsed.missing.map(([field, header]) => ({
         field: `mapping.${field}`,
         message: `The file has no column “${header}”`,
       })),
     );
   }
-  if (parsed.data.length === 0) throw badRequest('The file has no rows under its headings.');
-  if (parsed.data.length > IMPORT_MAX_ROWS) {
+  if (parsed.rowCount === 0) throw badRequest('The file has no rows under its headings.');
+  if (parsed.rowCount > IMPORT_MAX_ROWS) {
     throw badRequest(
-      `The file has ${parsed.data.length} rows; import at most ${IMPORT_MAX_ROWS} at a time.`,
+      `The file has ${parsed.rowCount} rows; import at most ${IMPORT_MAX_ROWS} at a time.`,
     );
   }
-
-  const rows = parsed.data.map((record) => {
-    const row: Partial<Record<ImportField, string>> = {};
-    for (const key of IMPORT_FIELD_KEYS) {
-      const header = file.mapping[key];
-      if (header) row[key] = record[header] ?? '';
-    }
-    return row;
-  });
-  const { valid, errors } = validateImportRows(rows, {
-    timeZone: shop.timeZone,
-    now,
-    mapping: file.mapping,
-  });
-  errors.push(...rowShapeErrors(parsed.data, headers));
-  // Cell-count problems are reported above, row by row; other CSV problems (quotes) as Papa says.
-  for (const e of parsed.errors) {
-    if (e.type !== 'FieldMismatch' && e.row !== undefined) {
-      errors.push({ row: e.row + 2, message: `The CSV cannot be read here: ${e.message}` });
-    }
-  }
+  const { valid, errors, rowCount } = parsed;
 
   // What only the database can tell.
   const conn = await db();
@@ -183,7 +157,7 @@ export async function prepareImport(
         fileDigest: digest,
         sizeBytes: file.bytes.length,
         status: 'failed',
-        rowCount: rows.length,
+        rowCount,
         errorCount: errors.length,
         errors,
         columnMap: invert(file.mapping),
@@ -191,7 +165,68 @@ export async function prepareImport(
         completedAt: new Date(),
       })
       .returning({ id: importBatches.id });
-    return { ok: false, batchId: batch!.id, rowCount: rows.length, errors };
+    return { ok: false, batchId: batch!.id, rowCount, errors };
   }
   return { ok: true, shop, file, digest, rows: valid, technicians };
+}
+
+const CHECK_BATCH = 1_000;
+export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+/**
+ * Parses the CSV, then checks it 1,000 rows at a time, handing the event loop a turn between
+ * slices so that other requests are answered while a large file is checked.
+ */
+async function parseInBatches(
+  text: string,
+  mapping: ColumnMapping,
+  timeZone: string,
+  now: Date,
+): Promise<{
+  missing: [string, string][];
+  rowCount: number;
+  valid: ParsedImportRow[];
+  errors: ImportRowError[];
+}> {
+  const parsed = Papa.parse<Record<string, string>>(text, {
+    header: true,
+    skipEmptyLines: 'greedy',
+    transformHeader: (h) => h.trim(),
+  });
+  const headers = parsed.meta.fields ?? [];
+  const missing = Object.entries(mapping).filter(([, header]) => !headers.includes(header));
+  const rowCount = parsed.data.length;
+  const valid: ParsedImportRow[] = [];
+  const errors: ImportRowError[] = [];
+  if (missing.length || rowCount > IMPORT_MAX_ROWS) return { missing, rowCount, valid, errors };
+
+  const seenRefs = new Map<string, number>();
+  for (let offset = 0; offset < rowCount; offset += CHECK_BATCH) {
+    const records = parsed.data.slice(offset, offset + CHECK_BATCH);
+    const rows = records.map((record) => {
+      const row: Partial<Record<ImportField, string>> = {};
+      for (const key of IMPORT_FIELD_KEYS) {
+        const header = mapping[key];
+        if (header) row[key] = record[header] ?? '';
+      }
+      return row;
+    });
+    const checked = validateImportRows(rows, {
+      timeZone,
+      now,
+      mapping,
+      seenRefs,
+      rowOffset: offset,
+    });
+    valid.push(...checked.valid);
+    errors.push(...checked.errors, ...rowShapeErrors(records, headers, offset));
+    await yieldToEventLoop();
+  }
+  // Cell-count problems are reported above, row by row; other CSV problems (quotes) as Papa says.
+  for (const e of parsed.errors) {
+    if (e.type !== 'FieldMismatch' && e.row !== undefined) {
+      errors.push({ row: e.row + 2, message: `The CSV cannot be read here: ${e.message}` });
+    }
+  }
+  return { missing, rowCount, valid, errors };
 }

@@ -17,7 +17,20 @@ export async function GET() {
       { status: pending === 0 ? 200 : 503 },
     );
   } catch (error) {
-    console.error('Health check failed', error);
-    return Response.json({ status: 'down', database: null }, { status: 503 });
+    // The handle is not cached when opening failed, so the next check tries again.
+    console.error('Health check failed:', error instanceof Error ? error.message : error);
+    return Response.json(
+      {
+        type: '/problems/database-unavailable',
+        title: 'Database unavailable',
+        status: 503,
+        detail: 'The database cannot be reached; see the server log.',
+        instance: '/api/health',
+      },
+      {
+        status: 503,
+        headers: { 'content-type': 'application/problem+json', 'retry-after': '5' },
+      },
+    );
   }
 }

@@ -6,6 +6,7 @@ import { badRequest, fieldErrorsOf, problemResponse } from '~/server/errors';
 import { recentImports } from '~/server/imports/history';
 import { runImport, type ImportProgress } from '~/server/imports/jobs';
 import { prepareImport } from '~/server/imports/prepare';
+import { readImportForm, tooLarge } from '~/server/imports/upload';
 
 export const dynamic = 'force-dynamic';
 // A 50,000-row file takes a while to store.
@@ -29,18 +30,12 @@ const postConfig = {
 } as const;
 
 export const POST = route(postConfig, async ({ principal, request }) => {
-  const form = await request.formData().catch(() => {
-    throw badRequest('Send the file as multipart/form-data with the fields file and mapping.');
-  });
+  const form = await readImportForm(request);
   const file = form.get('file');
   if (!(file instanceof File) || file.size === 0) {
     throw badRequest('Choose a CSV file to import.', [{ field: 'file', message: 'No file' }]);
   }
-  if (file.size > IMPORT_MAX_BYTES) {
-    throw badRequest('The file is larger than 50 MB; split it into smaller files.', [
-      { field: 'file', message: 'Larger than 50 MB' },
-    ]);
-  }
+  if (file.size > IMPORT_MAX_BYTES) throw tooLarge();
   if (!isStorableText(file.name)) {
     throw badRequest('The file name cannot be stored; rename the file.', [
       { field: 'file', message: 'The name contains a NUL or a broken character' },
@@ -94,11 +89,10 @@ export const POST = route(postConfig, async ({ principal, request }) => {
       const send = (line: unknown) =>
         controller.enqueue(encoder.encode(`${JSON.stringify(line)}\n`));
       try {
-        const summary = await runImport(principal, prepared, (progress: ImportProgress) => {
-          send({ progress });
-          // The embedded database answers without giving I/O a turn; yield so the line goes out.
-          return new Promise<void>((resolve) => setImmediate(resolve));
-        });
+        // runImport gives the event loop a turn after each step, so each line goes out.
+        const summary = await runImport(principal, prepared, (progress: ImportProgress) =>
+          send({ progress }),
+        );
         send({ done: summary });
       } catch (error) {
         send({ error: await problemResponse(error, request.nextUrl.pathname).json() });

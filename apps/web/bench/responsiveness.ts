@@ -1,0 +1,368 @@
+// `pnpm bench:responsiveness`: does the server stay responsive while a large CSV import runs?
+// Seeds the demo network into a fresh PGlite folder (or copies --data-dir, a folder seeded once),
+// starts the built server (`next start`, so build first), signs in as a shop lead and imports a
+// 66,000-row file while GET /api/health and GET /api/jobs (the bench list) are sent every 50 ms.
+// Prints their latency during the import and the import's duration, then, with the server
+// stopped, times PostgreSQL COPY of the very rows the import wrote on the same engine (in a
+// transaction rolled back). Figures are printed, never asserted.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { chmodSync, cpSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { loadavg, tmpdir } from 'node:os';
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import type { PGlite } from '@electric-sql/pglite';
+import { openDb, runMigrations } from '@reelwright/db/client';
+import { DEFAULT_SEED, DEMO_PASSWORD, isEmpty, seedDemo } from '@reelwright/db/seed';
+import { identityMapping, importRows, toCsv } from '~/server/imports/fixture';
+
+const { values: args } = parseArgs({
+  options: {
+    rows: { type: 'string', default: '66000' },
+    // A PostgreSQL database instead of PGlite (the script passes BENCH_DATABASE_URL): seeded when
+    // empty, and left seeded (each run imports new job numbers).
+    'pg-url': { type: 'string', default: '' },
+    'poll-ms': { type: 'string', default: '50' },
+    // A folder seeded by an earlier run (kept with --keep): copied, so every run starts the same.
+    'data-dir': { type: 'string', default: '' },
+    keep: { type: 'boolean', default: false },
+  },
+});
+
+const ROWS = Number(args.rows);
+const POLL_MS = Number(args['poll-ms']);
+const PG_URL = args['pg-url'];
+const LEAD = 'lead.marram@saltwick.test';
+const TECH = 'tech.marram@saltwick.test';
+const webDir = path.resolve(import.meta.dirname, '..');
+
+const quantile = (sorted: number[], p: number) =>
+  sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil(p * sorted.length) - 1)]! : NaN;
+const ms = (x: number) => `${x.toFixed(0)} ms`;
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = createServer();
+    server.once('error', reject);
+    server.listen(0, '127.0.0.1', () => {
+      const address = server.address();
+      server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
+    });
+  });
+}
+
+async function seed(options: { dataDir?: string; url?: string }) {
+  const handle = await openDb(options);
+  try {
+    await runMigrations(handle);
+    if (!(await isEmpty(handle.db))) return console.log('› the database is seeded already');
+    const t0 = performance.now();
+    await seedDemo(handle.db, { seed: DEFAULT_SEED, years: 2, now: new Date() });
+    console.log(`› seeded the demo network in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+  } finally {
+    await handle.close();
+  }
+}
+
+function startServer(dataDir: string, url: string, port: number): ChildProcess {
+  const child = spawn(
+    process.execPath,
+    [
+      'node_modules/next/dist/bin/next',
+      'start',
+      '--hostname',
+      '127.0.0.1',
+      '--port',
+      String(port),
+      // As the demo and the end-to-end server: idle connections outlive the client's.
+      '--keepAliveTimeout',
+      '65000',
+    ],
+    {
+      cwd: webDir,
+      env: {
+        // eslint-disable-next-line no-restricted-properties -- the server child needs PATH and the like
+        ...process.env,
+        NODE_ENV: 'production',
+        DATABASE_URL: url,
+        PGLITE_DATA_DIR: dataDir,
+        NEXTAUTH_SECRET: 'responsiveness-benchmark-only-secret-0123',
+        NEXTAUTH_URL: `http://127.0.0.1:${port}`,
+      },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    },
+  );
+  child.stderr!.on('data', (chunk: Buffer) => process.stderr.write(`  [server] ${chunk}`));
+  return child;
+}
+
+async function waitHealthy(base: string, server: ChildProcess) {
+  for (let i = 0; i < 600; i++) {
+    if (server.exitCode !== null) throw new Error(`the server exited with ${server.exitCode}`);
+    try {
+      if ((await fetch(`${base}/api/health`)).ok) return;
+    } catch {
+      // Not listening yet.
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error('the server did not become healthy');
+}
+
+async function signIn(base: string): Promise<string> {
+  const csrf = await fetch(`${base}/api/auth/csrf`);
+  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+  const jar = new Map<string, string>();
+  const keep = (response: Response) => {
+    for (const cookie of response.headers.getSetCookie()) {
+      const [pair] = cookie.split(';');
+      const at = pair!.indexOf('=');
+      jar.set(pair!.slice(0, at), pair!.slice(at + 1));
+    }
+  };
+  keep(csrf);
+  const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
+  const response = await fetch(`${base}/api/auth/callback/credentials`, {
+    method: 'POST',
+    redirect: 'manual',
+    headers: {
+      'content-type': 'application/x-www-form-urlencoded',
+      origin: base,
+      cookie: cookie(),
+    },
+    body: new URLSearchParams({ csrfToken, email: LEAD, password: DEMO_PASSWORD, json: 'true' }),
+  });
+  keep(response);
+  const me = await fetch(`${base}/api/me`, { headers: { cookie: cookie() } });
+  if (!me.ok) throw new Error(`signing in as ${LEAD} failed (${me.status})`);
+  return cookie();
+}
+
+interface Poller {
+  latencies: number[];
+  failures: number;
+  stop(): Promise<void>;
+}
+
+/** Sends a request every `POLL_MS` whether or not the previous one has answered. */
+function poll(url: string, headers: Record<string, string>): Poller {
+  const latencies: number[] = [];
+  const inFlight = new Set<Promise<void>>();
+  let failures = 0;
+  const timer = setInterval(() => {
+    const started = performance.now();
+    const request = fetch(url, { headers })
+      .then(async (response) => {
+        await response.arrayBuffer();
+        if (!response.ok) failures++;
+        latencies.push(performance.now() - started);
+      })
+      .catch(() => {
+        failures++;
+      })
+      .finally(() => inFlight.delete(request));
+    inFlight.add(request);
+  }, POLL_MS);
+  return {
+    latencies,
+    get failures() {
+      return failures;
+    },
+    async stop() {
+      clearInterval(timer);
+      await Promise.all([...inFlight]);
+    },
+  };
+}
+
+function summary(name: string, p: Poller) {
+  const sorted = [...p.latencies].sort((a, b) => a - b);
+  return `${name.padEnd(22)} ${String(sorted.length).padStart(5)} requests  p50 ${ms(quantile(sorted, 0.5)).padStart(8)}  p99 ${ms(quantile(sorted, 0.99)).padStart(8)}  max ${ms(sorted.at(-1) ?? NaN).padStart(8)}${p.failures ? `  (${p.failures} failed)` : ''}`;
+}
+
+const IMPORTED_TABLES = ['customers', 'reels', 'jobs', 'job_events', 'bench_sessions'] as const;
+
+function importedRows(batchId: number): Record<(typeof IMPORTED_TABLES)[number], string> {
+  const jobs = `select id from jobs where import_batch_id = ${batchId}`;
+  // Customers and reels the import created: its jobs' own, created in its transaction.
+  const since = `created_at >= (select created_at from import_batches where id = ${batchId})`;
+  return {
+    customers: `id in (select customer_id from jobs where import_batch_id = ${batchId}) and ${since}`,
+    reels: `id in (select reel_id from jobs where import_batch_id = ${batchId}) and ${since}`,
+    jobs: `import_batch_id = ${batchId}`,
+    job_events: `job_id in (${jobs})`,
+    bench_sessions: `job_id in (${jobs})`,
+  };
+}
+
+/**
+ * COPY of the rows the import wrote, into the same tables with their triggers and indexes, on the
+ * same engine: the rows are read out as CSV, deleted and copied back inside a transaction that is
+ * rolled back. Only the COPY statements are timed.
+ */
+async function timeCopyPglite(dataDir: string, batchId: number) {
+  const handle = await openDb({ dataDir });
+  try {
+    const client = (handle.db as unknown as { $client: PGlite }).$client;
+    const where = importedRows(batchId);
+    const blobs = new Map<string, Blob>();
+    let rows = 0;
+    for (const table of IMPORTED_TABLES) {
+      const out = await client.query(
+        `copy (select * from ${table} where ${where[table]}) to '/dev/blob' with (format csv)`,
+      );
+      blobs.set(table, out.blob!);
+      rows += out.affectedRows ?? 0;
+    }
+    let copyMs = 0;
+    await client.transaction(async (tx) => {
+      // The deletes only make room (and are rolled back): without triggers, so that neither the
+      // foreign-key checks nor the figures are paid for them.
+      await tx.query('set local session_replication_role = replica');
+      for (const table of [...IMPORTED_TABLES].reverse()) {
+        await tx.query(`delete from ${table} where ${where[table]}`);
+      }
+      await tx.query('set local session_replication_role = origin');
+      for (const table of IMPORTED_TABLES) {
+        const t0 = performance.now();
+        await tx.query(`copy ${table} from '/dev/blob' with (format csv)`, [], {
+          blob: blobs.get(table)!,
+        });
+        copyMs += performance.now() - t0;
+      }
+      await tx.rollback();
+    });
+    return { rows, copyMs };
+  } finally {
+    await handle.close();
+  }
+}
+
+interface PgClient {
+  query(text: string): Promise<{ rowCount: number | null }>;
+  release(): void;
+}
+
+/** The same on a PostgreSQL server on this machine, through server-side files (superuser). */
+async function timeCopyPg(url: string, batchId: number) {
+  const handle = await openDb({ url, maxConnections: 1 });
+  const pool = (handle.db as unknown as { $client: { connect(): Promise<PgClient> } }).$client;
+  const client = await pool.connect();
+  const dir = mkdtempSync(path.join(tmpdir(), 'rw-copy-'));
+  chmodSync(dir, 0o777);
+  try {
+    const where = importedRows(batchId);
+    let rows = 0;
+    for (const table of IMPORTED_TABLES) {
+      const out = await client.query(
+        `copy (select * from ${table} where ${where[table]}) to '${dir}/${table}.csv' with (format csv)`,
+      );
+      rows += out.rowCount ?? 0;
+    }
+    let copyMs = 0;
+    await client.query('begin');
+    await client.query('set local session_replication_role = replica');
+    for (const table of [...IMPORTED_TABLES].reverse()) {
+      await client.query(`delete from ${table} where ${where[table]}`);
+    }
+    await client.query('set local session_replication_role = origin');
+    for (const table of IMPORTED_TABLES) {
+      const t0 = performance.now();
+      await client.query(`copy ${table} from '${dir}/${table}.csv' with (format csv)`);
+      copyMs += performance.now() - t0;
+    }
+    await client.query('rollback');
+    return { rows, copyMs };
+  } finally {
+    client.release();
+    await handle.close();
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+async function main() {
+  const root = mkdtempSync(path.join(tmpdir(), 'rw-responsiveness-'));
+  const dataDir = path.join(root, 'pglite');
+  let server: ChildProcess | null = null;
+  try {
+    if (PG_URL) {
+      await seed({ url: PG_URL });
+    } else if (args['data-dir'] && existsSync(args['data-dir'])) {
+      cpSync(args['data-dir'], dataDir, { recursive: true });
+      rmSync(path.join(dataDir, '.reelwright.lock'), { force: true });
+      console.log(`› copied the seeded folder ${args['data-dir']}`);
+    } else {
+      await seed({ dataDir });
+      if (args['data-dir']) cpSync(dataDir, args['data-dir'], { recursive: true });
+    }
+
+    const port = await freePort();
+    const base = `http://127.0.0.1:${port}`;
+    server = startServer(dataDir, PG_URL, port);
+    await waitHealthy(base, server);
+    const cookie = await signIn(base);
+
+    const rows = importRows(ROWS, `RESP${Date.now()}`).map((row) => ({
+      ...row,
+      technician_email: row.technician_email ? TECH : '',
+    }));
+    const csv = new TextEncoder().encode(toCsv(rows));
+    console.log(
+      `› importing ${ROWS.toLocaleString('en-US')} rows (${(csv.length / 1e6).toFixed(1)} MB) as ${LEAD}, polling every ${POLL_MS} ms; load ${loadavg()[0]!.toFixed(2)}`,
+    );
+
+    // Warm both routes so the first compile-free request is not counted.
+    await fetch(`${base}/api/health`);
+    await fetch(`${base}/api/jobs`, { headers: { cookie } });
+
+    const health = poll(`${base}/api/health`, {});
+    const list = poll(`${base}/api/jobs`, { cookie });
+    const form = new FormData();
+    form.set('file', new Blob([csv], { type: 'text/csv' }), 'responsiveness.csv');
+    form.set('mapping', JSON.stringify(identityMapping));
+    const t0 = performance.now();
+    // Progress lines keep the answer flowing however long the import takes.
+    const response = await fetch(`${base}/api/imports/jobs`, {
+      method: 'POST',
+      headers: { cookie, origin: base, accept: 'application/x-ndjson' },
+      body: form,
+    });
+    const text = await response.text();
+    const importMs = performance.now() - t0;
+    await Promise.all([health.stop(), list.stop()]);
+    const last = JSON.parse(text.trim().split('\n').at(-1) ?? '{}') as {
+      done?: { batchId: number; imported: number };
+    };
+    const body = last.done;
+    if (!response.ok || !body) {
+      throw new Error(`the import answered ${response.status}: ${text.slice(-500)}`);
+    }
+
+    console.log(`\nDuring the import (${PG_URL ? 'PostgreSQL' : 'PGlite'}):`);
+    console.log(summary('GET /api/health', health));
+    console.log(summary('GET /api/jobs (lead)', list));
+    console.log(`import: ${(importMs / 1000).toFixed(2)} s (request to answer); now COPY…`);
+    server.kill('SIGTERM');
+    await new Promise((r) => server!.once('exit', r));
+    server = null;
+    const copy = PG_URL
+      ? await timeCopyPg(PG_URL, body.batchId)
+      : await timeCopyPglite(dataDir, body.batchId);
+
+    console.log(
+      `\nimport: ${body.imported?.toLocaleString('en-US')} jobs, ${copy.rows.toLocaleString('en-US')} rows written in ${(importMs / 1000).toFixed(2)} s (request to answer)`,
+    );
+    console.log(
+      `COPY of the same ${copy.rows.toLocaleString('en-US')} rows (${IMPORTED_TABLES.join(', ')}), same engine and triggers: ${(copy.copyMs / 1000).toFixed(2)} s`,
+    );
+    console.log(`import speed ÷ COPY speed: ${(copy.copyMs / importMs).toFixed(2)}`);
+  } finally {
+    if (server) {
+      server.kill('SIGKILL');
+      await new Promise((r) => server!.once('exit', r));
+    }
+    if (!args.keep) rmSync(root, { recursive: true, force: true });
+  }
+}
+
+await main();
