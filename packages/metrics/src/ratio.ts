@@ -61,7 +61,8 @@ function interpolatedCount(q: number, mean: number): number {
  * 24:1185–1202 (target ratio 1, precision E; exact limits with interpolation, appendix A.1,
  * Poisson case): O ~ Poisson(E), r_p the smallest r with P(O ≤ r) ≥ p,
  * α = (P(O ≤ r_p) − p) / (P(O ≤ r_p) − P(O ≤ r_p − 1)), limit (r_p − α) / E, at
- * p = (1 − coverage)/2 and (1 + coverage)/2. The lower limit is at least 0.
+ * p = (1 − coverage)/2 and (1 + coverage)/2. Both limits are at least 0; with E well below 1
+ * the interpolated upper limit can fall below 1, as the formula implies (`ratioBand` guards).
  *
  * Null when E = 0 (no funnel). Throws RangeError on a negative E or coverage outside (0, 1).
  */
@@ -74,7 +75,7 @@ export function ratioFunnelLimits(expected: number, coverage: number): Interval 
   const tail = (1 - coverage) / 2;
   return {
     lower: Math.max(0, interpolatedCount(tail, expected) / expected),
-    upper: interpolatedCount(1 - tail, expected) / expected,
+    upper: Math.max(0, interpolatedCount(1 - tail, expected) / expected),
   };
 }
 
