@@ -82,21 +82,26 @@ export function poissonQuantile(q: number, mean: number): number {
   return k;
 }
 
-/** Root of an increasing f on [0, ∞) with f(0) ≤ 0, by doubling then bisection to the last bit. */
-function rootIncreasing(f: (mu: number) => number, start: number): number {
+/**
+ * Root of an increasing f on [0, ∞) with f(0) < 0: Newton steps with f′ from a starting guess,
+ * kept inside a bracket that bisection narrows whenever a step would leave it.
+ */
+function rootIncreasing(f: (mu: number) => number, slope: (mu: number) => number, start: number) {
   let lo = 0;
-  let hi = Math.max(1, start);
-  while (f(hi) < 0) {
-    lo = hi;
-    hi *= 2;
+  let hi = Infinity;
+  let mu = Math.max(start, Number.MIN_VALUE);
+  for (let i = 0; i < 200; i++) {
+    const value = f(mu);
+    if (value === 0) return mu;
+    if (value < 0) lo = mu;
+    else hi = mu;
+    const d = slope(mu);
+    let next = d > 0 ? mu - value / d : NaN;
+    if (!(next > lo && next < hi)) next = hi === Infinity ? Math.max(2 * mu, 1) : (lo + hi) / 2;
+    if (Math.abs(next - mu) <= 1e-14 * mu) return next;
+    mu = next;
   }
-  for (let i = 0; i < 2000; i++) {
-    const mid = (lo + hi) / 2;
-    if (mid <= lo || mid >= hi) break;
-    if (f(mid) < 0) lo = mid;
-    else hi = mid;
-  }
-  return (lo + hi) / 2;
+  return mu;
 }
 
 /**
@@ -104,7 +109,8 @@ function rootIncreasing(f: (mu: number) => number, start: number): number {
  * (1936) "Fiducial limits for the Poisson distribution", Biometrika 28:437–442. The lower
  * limit is the mean μ with P(X ≥ observed | μ) = α/2 (0 when observed = 0), the upper the μ with
  * P(X ≤ observed | μ) = α/2; equivalently χ²(α/2; 2x)/2 and χ²(1 − α/2; 2x + 2)/2, or gamma
- * quantiles Γ⁻¹(α/2; x) and Γ⁻¹(1 − α/2; x + 1). Solved by bisection on this module's tails.
+ * quantiles Γ⁻¹(α/2; x) and Γ⁻¹(1 − α/2; x + 1). Solved by safeguarded Newton steps on this
+ * module's tails.
  *
  * Throws RangeError on a count that is not a non-negative integer or a confidence outside (0, 1).
  */
@@ -117,8 +123,21 @@ export function poissonInterval(observed: number, confidence = 0.95): Interval {
   }
   const tail = (1 - confidence) / 2;
   const x = observed;
-  const spread = 4 * Math.sqrt(x + 1) + 4;
-  const lower = x === 0 ? 0 : rootIncreasing((mu) => tails(x - 1, mu)[1] - tail, x);
-  const upper = rootIncreasing((mu) => tail - tails(x, mu)[0], x + spread);
+  const z = normalQuantile(1 - tail);
+  // Wilson–Hilferty starts; d/dμ P(X ≤ k | μ) = −P(X = k | μ) gives the Newton slopes.
+  const wh = (k: number, zz: number) => k * (1 - 1 / (9 * k) + zz / (3 * Math.sqrt(k))) ** 3;
+  const lower =
+    x === 0
+      ? 0
+      : rootIncreasing(
+          (mu) => tails(x - 1, mu)[1] - tail,
+          (mu) => pmf(x - 1, mu),
+          Math.max(wh(x, -z), x / 100),
+        );
+  const upper = rootIncreasing(
+    (mu) => tail - tails(x, mu)[0],
+    (mu) => pmf(x, mu),
+    wh(x + 1, z),
+  );
   return { lower, upper };
 }
