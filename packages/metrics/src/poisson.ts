@@ -96,9 +96,11 @@ function rootIncreasing(f: (mu: number) => number, slope: (mu: number) => number
     if (value < 0) lo = mu;
     else hi = mu;
     const d = slope(mu);
-    let next = d > 0 ? mu - value / d : NaN;
+    const step = d > 0 ? value / d : NaN;
+    if (Math.abs(step) <= 1e-14 * mu) return mu - step;
+    let next = mu - step;
     if (!(next > lo && next < hi)) next = hi === Infinity ? Math.max(2 * mu, 1) : (lo + hi) / 2;
-    if (Math.abs(next - mu) <= 1e-14 * mu) return next;
+    if (hi < Infinity && hi - lo <= 1e-15 * hi) return next;
     mu = next;
   }
   return mu;

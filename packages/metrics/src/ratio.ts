@@ -109,7 +109,17 @@ export function ratioBand(
 ): RatioBand {
   checkObserved(observed);
   checkExpected(expected);
-  const minExpected = options.minExpected ?? DEFAULT_MIN_EXPECTED;
+  return bandOn(observed, expected, options.minExpected, (coverage) =>
+    ratioFunnelLimits(expected, coverage),
+  );
+}
+
+function bandOn(
+  observed: number,
+  expected: number,
+  minExpected = DEFAULT_MIN_EXPECTED,
+  limitsAt: (coverage: 0.998 | 0.95) => Interval | null,
+): RatioBand {
   if (expected === 0) return { band: 'in line', side: null, note: 'nothing expected' };
   if (expected < minExpected) return { band: 'in line', side: null, note: 'too little follow-up' };
   const ratio = observed / expected;
@@ -118,7 +128,7 @@ export function ratioBand(
     [0.998, 'out of line'],
     [0.95, 'on watch'],
   ] as const) {
-    const limits = ratioFunnelLimits(expected, coverage)!;
+    const limits = limitsAt(coverage)!;
     const tail = (1 - coverage) / 2;
     if (ratio > limits.upper) {
       crossed = true;
@@ -152,11 +162,13 @@ export function compareRatios(
   shops: readonly RatioShop[],
   options: { minExpected?: number } = {},
 ): RatioComparison[] {
-  return shops.map((s) => ({
-    shopId: s.shopId,
-    ...standardizedRatio(s.observed, s.expected),
-    funnel95: ratioFunnelLimits(s.expected, 0.95),
-    funnel998: ratioFunnelLimits(s.expected, 0.998),
-    ...ratioBand(s.observed, s.expected, options),
-  }));
+  return shops.map((s) => {
+    const ratio = standardizedRatio(s.observed, s.expected);
+    const funnel95 = ratioFunnelLimits(s.expected, 0.95);
+    const funnel998 = ratioFunnelLimits(s.expected, 0.998);
+    const band = bandOn(s.observed, s.expected, options.minExpected, (coverage) =>
+      coverage === 0.95 ? funnel95 : funnel998,
+    );
+    return { shopId: s.shopId, ...ratio, funnel95, funnel998, ...band };
+  });
 }
