@@ -3,10 +3,16 @@ import seedrandom from 'seedrandom';
 import {
   businessMinutes,
   type ComebackAttribution,
+  comebackEstimate,
+  comebackReference,
   comebackRate,
   type ComebackRateJob,
+  compareRatios,
   compareShops,
+  type FollowUpRow,
+  followUpTable,
   jobTurnaround,
+  mergeSurvivalTables,
   type OpeningSpan,
   revenuePerBenchHour,
   type ShopCalendar,
@@ -141,6 +147,28 @@ const rates = time('comebackRate, 60 shops', JOBS, () =>
 time('compareShops (Wilson + 95% and 99.8% funnels), 60 shops', SHOPS, () =>
   compareShops(rates.map((r, s) => ({ shopId: `shop-${s}`, events: r.events, trials: r.trials }))),
 );
+const counted = new Set<ComebackAttribution>(['workmanship', 'part_failure']);
+const followRows: FollowUpRow[][] = byShop.map((idx) =>
+  idx.map((i) => {
+    const r = jobs[i]!.rate;
+    const back = r.comebacks.find((c) => counted.has(c.attribution));
+    return { collectedAt: r.collectedAt!, comebackAt: back?.reportedAt ?? null };
+  }),
+);
+const tables = time('followUpTable (whole days since collection), 60 shops', JOBS, () =>
+  followRows.map((rows) => followUpTable(rows, { asOf, warrantyDays: 90 })),
+);
+time('Kaplan–Meier + Nelson–Aalen + O/E per shop, compareRatios, 60 shops', SHOPS, () => {
+  const reference = comebackReference(mergeSurvivalTables(tables), 90);
+  const estimates = tables.map((t) => comebackEstimate(t, { warrantyDays: 90, reference }));
+  return compareRatios(
+    estimates.map((e, s) => ({
+      shopId: `shop-${s}`,
+      observed: e.ratio!.observed,
+      expected: e.ratio!.expected,
+    })),
+  );
+});
 time('revenuePerBenchHour, 60 shops', JOBS, () =>
   byShop.map((idx) => revenuePerBenchHour(idx.map((i) => jobs[i]!))),
 );

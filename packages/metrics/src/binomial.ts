@@ -19,7 +19,7 @@ const smallStirling: number[] = (() => {
 })();
 
 /** Error of Stirling's approximation to ln n!, for integer n ≥ 0. */
-function stirlerr(n: number): number {
+export function stirlerr(n: number): number {
   if (n <= 15) return smallStirling[n]!;
   const nn = n * n;
   const S0 = 1 / 12;
@@ -34,7 +34,7 @@ function stirlerr(n: number): number {
 }
 
 /** Deviance term x ln(x / np) + np − x, computed without cancellation near x = np. */
-function bd0(x: number, np: number): number {
+export function bd0(x: number, np: number): number {
   if (Math.abs(x - np) < 0.1 * (x + np)) {
     let v = (x - np) / (x + np);
     let s = (x - np) * v;

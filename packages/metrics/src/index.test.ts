@@ -27,6 +27,21 @@ describe('@reelwright/metrics public API', () => {
       'comebackRate',
       'compareShops',
       'royaltyCents',
+      'followUp',
+      'followUpTable',
+      'kaplanMeier',
+      'eventProbability',
+      'nelsonAalen',
+      'hazardAt',
+      'expectedEvents',
+      'poissonInterval',
+      'standardizedRatio',
+      'ratioFunnelLimits',
+      'ratioBand',
+      'compareRatios',
+      'comebackReference',
+      'comebackEstimate',
+      'expectedRate',
     ]) {
       expect(typeof (metrics as Record<string, unknown>)[name], name).toBe('function');
     }

@@ -94,3 +94,48 @@ export {
   type ComebackRate,
   type ComebackRateJob,
 } from './comebacks';
+export {
+  poissonCdf,
+  poissonInterval,
+  poissonPmf,
+  poissonQuantile,
+  poissonSurvival,
+} from './poisson';
+export {
+  eventProbability,
+  expectedEvents,
+  followUp,
+  followUpTable,
+  hazardAt,
+  kaplanMeier,
+  mergeSurvivalTables,
+  nelsonAalen,
+  survivalAt,
+  survivalTable,
+  tableTotals,
+  type CumulativeHazard,
+  type EventProbability,
+  type FollowUp,
+  type FollowUpRow,
+  type KaplanMeierCurve,
+  type SurvivalTable,
+} from './survival';
+export {
+  compareRatios,
+  DEFAULT_MIN_EXPECTED,
+  ratioBand,
+  ratioFunnelLimits,
+  standardizedRatio,
+  type RatioBand,
+  type RatioComparison,
+  type RatioNote,
+  type RatioShop,
+  type StandardizedRatio,
+} from './ratio';
+export {
+  comebackEstimate,
+  comebackReference,
+  expectedRate,
+  type ComebackEstimate,
+  type ComebackReference,
+} from './comeback-estimate';
