@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { idNumber, idParam } from './common';
+import { idNumber, idParam, text } from './common';
 
 export const PHOTO_STAGES = ['check_in', 'teardown', 'reassembly'] as const;
 export type PhotoStage = (typeof PHOTO_STAGES)[number];
