@@ -145,7 +145,7 @@ describe('PGlite folder lock', () => {
 
   it('keeps refreshing its lock while the holder’s main thread is busy', async () => {
     const dir = tempDataDir();
-    await holdLock(dir, 'busy', 100);
+    await holdLock(dir, 'busy', 1000);
     // Seen from another host (same file, another host name), the blocked holder is still alive.
     const file = path.join(dir, LOCK_FILE_NAME);
     writeFileSync(
