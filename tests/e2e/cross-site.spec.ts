@@ -232,7 +232,7 @@ test.describe('owner in Chromium, on a page served from another port of the same
       const seen: string[] = [];
       (window as unknown as { cspViolations: string[] }).cspViolations = seen;
       document.addEventListener('securitypolicyviolation', (e) =>
-        seen.push(`${e.violatedDirective} ${e.blockedURI}`),
+        seen.push(`${e.violatedDirective} ${e.blockedURI} ${e.sourceFile}:${e.lineNumber}`),
       );
     });
     await page.goto('/network');
