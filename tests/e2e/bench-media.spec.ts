@@ -273,19 +273,21 @@ test('auditor – sees a sampled job’s photo through the round, served as the 
   const round = (await planned.json()) as { id: number; sampledJobIds: number[] };
   const jobId = round.sampledJobIds[0]!;
 
-  // The owner adds a photo to the sampled job, as the shop would have.
+  await owner.close();
+  // The shop's lead adds a photo to the sampled job.
+  const lead = await browser.newContext({ storageState: storageState('leadFennel') });
   const png = pngImage(48, 36);
-  const ticket = await (
-    await owner.request.post(`/api/jobs/${jobId}/photos`, {
-      data: { stage: 'reassembly', contentType: 'image/png', size: png.length },
-    })
-  ).json();
-  await owner.request.put(ticket.uploadUrl, { data: png, headers: ticket.headers });
-  const confirmed = await owner.request.post(`/api/jobs/${jobId}/photos`, {
+  const started = await lead.request.post(`/api/jobs/${jobId}/photos`, {
+    data: { stage: 'reassembly', contentType: 'image/png', size: png.length },
+  });
+  expect(started.status()).toBe(201);
+  const ticket = await started.json();
+  await lead.request.put(ticket.uploadUrl, { data: png, headers: ticket.headers });
+  const confirmed = await lead.request.post(`/api/jobs/${jobId}/photos`, {
     data: { confirm: ticket.photoId },
   });
   expect(confirmed.status()).toBe(200);
-  await owner.close();
+  await lead.close();
 
   const auditor = await browser.newContext({ storageState: storageState('auditor') });
   const url = `/api/audit-rounds/${round.id}/samples/${jobId}/photos/${ticket.photoId}`;
