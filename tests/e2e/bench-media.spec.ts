@@ -253,31 +253,43 @@ test.describe('photos on the bench', () => {
 test('auditor – sees a sampled job’s photo through the round, served as the bench serves it', async ({
   browser,
 }) => {
-  const auditor = await browser.newContext({ storageState: storageState('auditor') });
-  const { rounds } = (await (await auditor.request.get('/api/audit-rounds')).json()) as {
-    rounds: { id: number }[];
-  };
-  const round = rounds[0]!;
-  const detail = (await (await auditor.request.get(`/api/audit-rounds/${round.id}`)).json()) as {
-    samples: { jobId: number }[];
-  };
-  const jobId = detail.samples[0]!.jobId;
-
-  // The owner adds a photo to the sampled job (any shop), as the shop would have.
+  // A round of Fennel Cove's week for the demo auditor, planned by the owner.
   const owner = await browser.newContext({ storageState: storageState('owner') });
+  const { shops } = (await (await owner.request.get('/api/shops')).json()) as {
+    shops: { id: number; name: string }[];
+  };
+  const { users } = (await (await owner.request.get('/api/users')).json()) as {
+    users: { id: number; email: string }[];
+  };
+  const planned = await owner.request.post('/api/audit-rounds', {
+    data: {
+      shopId: shops.find((s) => s.name === 'Fennel Cove')!.id,
+      from: '2026-08-10',
+      to: '2026-08-16',
+      auditorId: users.find((u) => u.email === 'auditor@saltwick.test')!.id,
+    },
+  });
+  expect(planned.status()).toBe(201);
+  const round = (await planned.json()) as { id: number; sampledJobIds: number[] };
+  const jobId = round.sampledJobIds[0]!;
+
+  await owner.close();
+  // The shop's lead adds a photo to the sampled job.
+  const lead = await browser.newContext({ storageState: storageState('leadFennel') });
   const png = pngImage(48, 36);
-  const ticket = await (
-    await owner.request.post(`/api/jobs/${jobId}/photos`, {
-      data: { stage: 'reassembly', contentType: 'image/png', size: png.length },
-    })
-  ).json();
-  await owner.request.put(ticket.uploadUrl, { data: png, headers: ticket.headers });
-  const confirmed = await owner.request.post(`/api/jobs/${jobId}/photos`, {
+  const started = await lead.request.post(`/api/jobs/${jobId}/photos`, {
+    data: { stage: 'reassembly', contentType: 'image/png', size: png.length },
+  });
+  expect(started.status()).toBe(201);
+  const ticket = await started.json();
+  await lead.request.put(ticket.uploadUrl, { data: png, headers: ticket.headers });
+  const confirmed = await lead.request.post(`/api/jobs/${jobId}/photos`, {
     data: { confirm: ticket.photoId },
   });
   expect(confirmed.status()).toBe(200);
-  await owner.close();
+  await lead.close();
 
+  const auditor = await browser.newContext({ storageState: storageState('auditor') });
   const url = `/api/audit-rounds/${round.id}/samples/${jobId}/photos/${ticket.photoId}`;
   const view = (await (
     await auditor.request.get(`/api/audit-rounds/${round.id}/samples/${jobId}`)
