@@ -33,6 +33,8 @@ vi.mock('~/server/session', () =>
 const RUNS = env.FUZZ_RUNS ?? (env.CI === 'true' ? 1000 : 100);
 /** Routes without params, query or body ignore what is sent: fewer cases show that. */
 const INPUTLESS_RUNS = Math.min(RUNS, 50);
+/** A route's cases on a busy machine: well past a minute. */
+const FUZZ_TIMEOUT = 600_000;
 
 let net: Network;
 const figures: { route: string; cases: number; refused: number; accepted: number; ms: number }[] =
@@ -197,8 +199,11 @@ describe('route fuzz – bad input is a 4xx problem and writes nothing', () => {
               mutation.kind === 'unknown-field' ||
               mutation.kind === 'not-json');
           if (mustRefuse) expect(ok, `the schemas take ${JSON.stringify(c)}`).toBe(false);
-          // A write the schemas accept would write: only reads run with what they accept.
-          fc.pre(!ok || spec.method === 'get');
+          // A write the schemas accept would write: only reads run with what they accept, and
+          // at most a tenth of the cases, as those reach the database.
+          fc.pre(
+            !ok || (spec.method === 'get' && (inputless || acceptedCount < Math.max(5, runs / 10))),
+          );
           const response = await handler(request, { params: Promise.resolve(c.params) });
           const what = `${name} ${JSON.stringify(c)} → ${response.status}`;
           expect(response.status, what).toBeLessThan(500);
@@ -224,96 +229,101 @@ describe('route fuzz – bad input is a 4xx problem and writes nothing', () => {
       });
       expect(await databaseFingerprint()).toEqual(before);
     },
+    FUZZ_TIMEOUT,
   );
 
-  it('POST /api/imports/jobs – a CSV or mapping that cannot be imported is a 400 and imports nothing', async () => {
-    const spec = ROUTES.find((s) => s.bodyType === 'multipart')!;
-    const handler = await loadRoute(routeFileOf(spec), spec.method);
-    state.principal = net.as.lead;
-    const lines = importTemplateCsv().split(/\r?\n/);
-    const headers = lines[0]!.split(',');
-    // The template's open job: a valid row in any shop (no technician named).
-    const good = readCsvRow(lines[2]!);
-    const mapping = Object.fromEntries(headers.map((h) => [h, h]));
-    const dateColumns = [
-      'checked_in_at',
-      'promised_at',
-      'parts_wait_from',
-      'ready_at',
-      'collected_at',
-    ];
-    const column = fc.integer({ min: 0, max: headers.length - 1 });
-    const cellCase = fc.oneof(
-      fc.record({ col: column, value: nulText }).map(({ col, value }) => ({
-        cells: good.map((cell, i) => (i === col ? `${cell}${value}` : cell)),
-        mapping,
-      })),
-      fc
-        .record({
-          col: fc.constantFrom(...dateColumns),
-          value: fc.constantFrom(
-            '2025-02-30',
-            '2025-02-29',
-            '2025-13-01',
-            '2025-04-31',
-            '2025-00-10',
-          ),
-        })
-        .map(({ col, value }) => ({
-          cells: good.map((cell, i) => (headers[i] === col ? `${value} 10:00` : cell)),
+  it(
+    'POST /api/imports/jobs – a CSV or mapping that cannot be imported is a 400 and imports nothing',
+    async () => {
+      const spec = ROUTES.find((s) => s.bodyType === 'multipart')!;
+      const handler = await loadRoute(routeFileOf(spec), spec.method);
+      state.principal = net.as.lead;
+      const lines = importTemplateCsv().split(/\r?\n/);
+      const headers = lines[0]!.split(',');
+      // The template's open job: a valid row in any shop (no technician named).
+      const good = readCsvRow(lines[2]!);
+      const mapping = Object.fromEntries(headers.map((h) => [h, h]));
+      const dateColumns = [
+        'checked_in_at',
+        'promised_at',
+        'parts_wait_from',
+        'ready_at',
+        'collected_at',
+      ];
+      const column = fc.integer({ min: 0, max: headers.length - 1 });
+      const cellCase = fc.oneof(
+        fc.record({ col: column, value: nulText }).map(({ col, value }) => ({
+          cells: good.map((cell, i) => (i === col ? `${cell}${value}` : cell)),
           mapping,
         })),
-      fc
-        .record({
-          col: fc.constantFrom('reel_kind', 'service_type', 'state', 'bearing_count', 'water'),
-          value: fc.oneof(nulText, fc.constantFrom('??', '-1', '1e3', 'spinning!', '0x10')),
-        })
-        .map(({ col, value }) => ({
-          cells: good.map((cell, i) => (headers[i] === col ? value : cell)),
-          mapping,
-        })),
-      fc
-        .record({
-          key: fc.constantFrom('nope', 'external_ref'),
-          value: fc.oneof(nulText, fc.constantFrom('Missing column')),
-        })
-        .map(({ key, value }) => ({ cells: good, mapping: { ...mapping, [key]: value } })),
-    );
-    const before = await databaseFingerprint({ except: ['import_batches'] });
-    const started = performance.now();
-    const runs = RUNS;
-    await fc.assert(
-      fc.asyncProperty(cellCase, async ({ cells, mapping: m }) => {
-        const csv = `${lines[0]}\n${cells.map(quoteCsv).join(',')}\n`;
-        const form = new FormData();
-        form.set('file', new File([csv], 'jobs.csv', { type: 'text/csv' }));
-        form.set('mapping', JSON.stringify(m));
-        const request = new NextRequest(new URL(spec.path, ORIGIN), {
-          method: 'POST',
-          headers: { origin: ORIGIN, 'sec-fetch-site': 'same-origin' },
-          body: form,
-        });
-        const response = await handler(request, { params: Promise.resolve({}) });
-        const what = `${JSON.stringify({ cells, m })} → ${response.status}`;
-        expect(response.status, what).toBeGreaterThanOrEqual(400);
-        expect(response.status, what).toBeLessThan(500);
-        expect(response.headers.get('content-type'), what).toContain('application/problem+json');
-      }),
-      { numRuns: runs },
-    );
-    figures.push({
-      route: 'POST /api/imports/jobs',
-      cases: runs,
-      refused: runs,
-      accepted: 0,
-      ms: Math.round(performance.now() - started),
-    });
-    expect(await databaseFingerprint({ except: ['import_batches'] })).toEqual(before);
-    const batches = await state.handle!.db.execute<{ status: string }>(
-      sql`select distinct status from import_batches`,
-    );
-    expect(batches.rows.map((r) => r.status).filter((s) => s !== 'failed')).toEqual([]);
-  });
+        fc
+          .record({
+            col: fc.constantFrom(...dateColumns),
+            value: fc.constantFrom(
+              '2025-02-30',
+              '2025-02-29',
+              '2025-13-01',
+              '2025-04-31',
+              '2025-00-10',
+            ),
+          })
+          .map(({ col, value }) => ({
+            cells: good.map((cell, i) => (headers[i] === col ? `${value} 10:00` : cell)),
+            mapping,
+          })),
+        fc
+          .record({
+            col: fc.constantFrom('reel_kind', 'service_type', 'state', 'bearing_count', 'water'),
+            value: fc.oneof(nulText, fc.constantFrom('??', '-1', '1e3', 'spinning!', '0x10')),
+          })
+          .map(({ col, value }) => ({
+            cells: good.map((cell, i) => (headers[i] === col ? value : cell)),
+            mapping,
+          })),
+        fc
+          .record({
+            key: fc.constantFrom('nope', 'external_ref'),
+            value: fc.oneof(nulText, fc.constantFrom('Missing column')),
+          })
+          .map(({ key, value }) => ({ cells: good, mapping: { ...mapping, [key]: value } })),
+      );
+      const before = await databaseFingerprint({ except: ['import_batches'] });
+      const started = performance.now();
+      const runs = RUNS;
+      await fc.assert(
+        fc.asyncProperty(cellCase, async ({ cells, mapping: m }) => {
+          const csv = `${lines[0]}\n${cells.map(quoteCsv).join(',')}\n`;
+          const form = new FormData();
+          form.set('file', new File([csv], 'jobs.csv', { type: 'text/csv' }));
+          form.set('mapping', JSON.stringify(m));
+          const request = new NextRequest(new URL(spec.path, ORIGIN), {
+            method: 'POST',
+            headers: { origin: ORIGIN, 'sec-fetch-site': 'same-origin' },
+            body: form,
+          });
+          const response = await handler(request, { params: Promise.resolve({}) });
+          const what = `${JSON.stringify({ cells, m })} → ${response.status}`;
+          expect(response.status, what).toBeGreaterThanOrEqual(400);
+          expect(response.status, what).toBeLessThan(500);
+          expect(response.headers.get('content-type'), what).toContain('application/problem+json');
+        }),
+        { numRuns: runs },
+      );
+      figures.push({
+        route: 'POST /api/imports/jobs',
+        cases: runs,
+        refused: runs,
+        accepted: 0,
+        ms: Math.round(performance.now() - started),
+      });
+      expect(await databaseFingerprint({ except: ['import_batches'] })).toEqual(before);
+      const batches = await state.handle!.db.execute<{ status: string }>(
+        sql`select distinct status from import_batches`,
+      );
+      expect(batches.rows.map((r) => r.status).filter((s) => s !== 'failed')).toEqual([]);
+    },
+    FUZZ_TIMEOUT,
+  );
 });
 
 function readCsvRow(line: string): string[] {
