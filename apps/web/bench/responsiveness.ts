@@ -299,6 +299,13 @@ async function main() {
     const port = await freePort();
     const base = `http://127.0.0.1:${port}`;
     server = startServer(dataDir, PG_URL, port);
+    // Stopped with Ctrl-C, the bench takes its server down with it.
+    for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+      process.once(signal, () => {
+        server?.kill('SIGTERM');
+        process.exit(130);
+      });
+    }
     await waitHealthy(base, server);
     const cookie = await signIn(base);
 
