@@ -7,6 +7,7 @@
 // transaction rolled back). Figures are printed, never asserted.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { chmodSync, cpSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
+import http from 'node:http';
 import { createServer } from 'node:net';
 import { loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
@@ -299,6 +300,13 @@ async function main() {
     const port = await freePort();
     const base = `http://127.0.0.1:${port}`;
     server = startServer(dataDir, PG_URL, port);
+    // Stopped with Ctrl-C, the bench takes its server down with it.
+    for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+      process.once(signal, () => {
+        server?.kill('SIGTERM');
+        process.exit(130);
+      });
+    }
     await waitHealthy(base, server);
     const cookie = await signIn(base);
 
@@ -321,21 +329,42 @@ async function main() {
     form.set('file', new Blob([csv], { type: 'text/csv' }), 'responsiveness.csv');
     form.set('mapping', JSON.stringify(identityMapping));
     const t0 = performance.now();
-    // Progress lines keep the answer flowing however long the import takes.
-    const response = await fetch(`${base}/api/imports/jobs`, {
-      method: 'POST',
-      headers: { cookie, origin: base, accept: 'application/x-ndjson' },
-      body: form,
-    });
-    const text = await response.text();
+    // node:http rather than fetch, whose 300 s wait for headers a loaded machine can exceed.
+    const encoded = new Response(form);
+    const payload = Buffer.from(await encoded.arrayBuffer());
+    const { status, text } = await new Promise<{ status: number; text: string }>(
+      (resolve, reject) => {
+        const request = http.request(
+          `${base}/api/imports/jobs`,
+          {
+            method: 'POST',
+            headers: {
+              cookie,
+              origin: base,
+              accept: 'application/x-ndjson',
+              'content-type': encoded.headers.get('content-type')!,
+              'content-length': String(payload.length),
+            },
+          },
+          (answer) => {
+            let data = '';
+            answer.setEncoding('utf8');
+            answer.on('data', (chunk: string) => (data += chunk));
+            answer.on('end', () => resolve({ status: answer.statusCode ?? 0, text: data }));
+          },
+        );
+        request.on('error', reject);
+        request.end(payload);
+      },
+    );
     const importMs = performance.now() - t0;
     await Promise.all([health.stop(), list.stop()]);
     const last = JSON.parse(text.trim().split('\n').at(-1) ?? '{}') as {
       done?: { batchId: number; imported: number };
     };
     const body = last.done;
-    if (!response.ok || !body) {
-      throw new Error(`the import answered ${response.status}: ${text.slice(-500)}`);
+    if (status !== 200 || !body) {
+      throw new Error(`the import answered ${status}: ${text.slice(-500)}`);
     }
 
     console.log(`\nDuring the import (${PG_URL ? 'PostgreSQL' : 'PGlite'}):`);
