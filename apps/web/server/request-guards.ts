@@ -113,12 +113,17 @@ export function assertDeclaredLength(headers: Headers, limit: number) {
 }
 
 /**
- * The body as text, read chunk by chunk and abandoned with a 413 as soon as it passes `limit`
- * bytes, so a chunked body without Content-Length is never held whole either.
+ * The body's bytes, read chunk by chunk and abandoned with `tooLarge()` (a 413) as soon as they
+ * pass `limit`, so a chunked body without Content-Length is never held whole either.
  */
-export async function readBodyText(request: Request, limit: number): Promise<string> {
-  assertDeclaredLength(request.headers, limit);
-  if (!request.body) return '';
+export async function readBodyBytes(
+  request: Request,
+  limit: number,
+  tooLarge: () => Error = () => payloadTooLarge(limit),
+): Promise<Uint8Array> {
+  const declared = request.headers.get('content-length');
+  if (declared !== null && Number(declared) > limit) throw tooLarge();
+  if (!request.body) return new Uint8Array();
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
   let total = 0;
@@ -128,7 +133,7 @@ export async function readBodyText(request: Request, limit: number): Promise<str
     total += value.byteLength;
     if (total > limit) {
       await reader.cancel().catch(() => undefined);
-      throw payloadTooLarge(limit);
+      throw tooLarge();
     }
     chunks.push(value);
   }
@@ -138,6 +143,12 @@ export async function readBodyText(request: Request, limit: number): Promise<str
     bytes.set(chunk, offset);
     offset += chunk.byteLength;
   }
+  return bytes;
+}
+
+/** The body as UTF-8 text, within `limit` bytes (see readBodyBytes). */
+export async function readBodyText(request: Request, limit: number): Promise<string> {
+  const bytes = await readBodyBytes(request, limit);
   return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
 }
 

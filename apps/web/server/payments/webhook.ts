@@ -3,6 +3,7 @@ import { paymentEvents, royaltyInvoices } from '@reelwright/db/schema';
 import Stripe from 'stripe';
 import { ApiError, badRequest } from '../errors';
 import { isUniqueViolation } from '../month-close/close';
+import { readBodyBytes } from '../request-guards';
 
 export interface WebhookOutcome {
   received: true;
@@ -32,23 +33,7 @@ const tooLarge = () =>
  * before more is read, and nothing is parsed until the whole body is within it.
  */
 export async function readWebhookBody(request: Request): Promise<Uint8Array> {
-  const declared = Number(request.headers.get('content-length') ?? 0);
-  if (declared > WEBHOOK_MAX_BYTES) throw tooLarge();
-  if (!request.body) return new Uint8Array();
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > WEBHOOK_MAX_BYTES) {
-      await reader.cancel().catch(() => undefined);
-      throw tooLarge();
-    }
-    chunks.push(value);
-  }
-  return Buffer.concat(chunks);
+  return Buffer.from(await readBodyBytes(request, WEBHOOK_MAX_BYTES, tooLarge));
 }
 
 /** The signed `t=` of a Stripe-Signature header, read as the Stripe library reads it (the last one). */
