@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { importTemplateCsv } from '~/lib/import-template';
 import { buildNetwork, type Network } from '~/server/bench/fixture';
 import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
-import { databaseFingerprint, loadRoute, ORIGIN } from './test-support';
+import { databaseFingerprint, loadRoute, ORIGIN, SAME_ORIGIN_HEADERS } from './test-support';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 vi.mock('~/server/session', () =>
@@ -33,7 +33,7 @@ async function call(
   options: { params?: Record<string, string>; body?: unknown; form?: FormData } = {},
 ) {
   const handler = await loadRoute(file, method);
-  const headers: Record<string, string> = { origin: ORIGIN, 'sec-fetch-site': 'same-origin' };
+  const headers: Record<string, string> = { ...SAME_ORIGIN_HEADERS };
   if (options.body !== undefined) headers['content-type'] = 'application/json';
   const request = new NextRequest(new URL(url, ORIGIN), {
     method: method.toUpperCase(),

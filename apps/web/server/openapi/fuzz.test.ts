@@ -19,7 +19,7 @@ import {
   type Mutation,
 } from './fuzz-cases';
 import { ROUTES, routeFileOf, type RouteSpec } from './registry';
-import { databaseFingerprint, loadRoute, ORIGIN } from './test-support';
+import { databaseFingerprint, loadRoute, ORIGIN, SAME_ORIGIN_HEADERS } from './test-support';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 vi.mock('~/server/session', () =>
@@ -84,7 +84,7 @@ function requestOf(spec: RouteSpec, c: Case): NextRequest {
     path = path.replace(`{${k}}`, encodeURIComponent(v));
   const url = new URL(path, ORIGIN);
   for (const [k, v] of Object.entries(c.query)) url.searchParams.set(k, v);
-  const headers: Record<string, string> = { origin: ORIGIN, 'sec-fetch-site': 'same-origin' };
+  const headers: Record<string, string> = { ...SAME_ORIGIN_HEADERS };
   if (c.body !== undefined) headers['content-type'] = 'application/json';
   return new NextRequest(url, { method: spec.method.toUpperCase(), headers, body: c.body });
 }
@@ -298,7 +298,7 @@ describe('route fuzz – bad input is a 4xx problem and writes nothing', () => {
           form.set('mapping', JSON.stringify(m));
           const request = new NextRequest(new URL(spec.path, ORIGIN), {
             method: 'POST',
-            headers: { origin: ORIGIN, 'sec-fetch-site': 'same-origin' },
+            headers: SAME_ORIGIN_HEADERS,
             body: form,
           });
           const response = await handler(request, { params: Promise.resolve({}) });

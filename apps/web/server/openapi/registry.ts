@@ -9,6 +9,7 @@ import {
   planRoundInput,
   roundListQuery,
   roundSampleParams,
+  samplePhotoParams,
   sampleAnswersInput,
 } from '~/lib/validators/audits';
 import {
@@ -38,7 +39,7 @@ import {
   periodQuery,
   shopTrendsQuery,
 } from '~/lib/validators/network';
-import { photoConfirmRequest, photoUploadRequest } from '~/lib/validators/photos';
+import { photoConfirmRequest, photoParams, photoUploadRequest } from '~/lib/validators/photos';
 import { batchesQuery, dueQuery, sendInput } from '~/lib/validators/reminders';
 import { shopCalendarInput } from '~/lib/validators/shops';
 
@@ -179,6 +180,15 @@ export const ROUTES: readonly RouteSpec[] = [
     params: roundSampleParams,
     status: 200,
     example: { params: { id: '1', jobId: '1' } },
+  },
+  {
+    method: 'get',
+    path: '/api/audit-rounds/{id}/samples/{jobId}/photos/{photoId}',
+    summary: "A sampled job's checked photo, served as the bench's photo route serves it",
+    permission: 'audits:read',
+    params: samplePhotoParams,
+    status: 200,
+    example: { params: { id: '1', jobId: '1', photoId: '1' } },
   },
   {
     method: 'put',
@@ -512,6 +522,15 @@ export const ROUTES: readonly RouteSpec[] = [
     example: { params: id },
   },
   {
+    method: 'get',
+    path: '/api/jobs/{id}/photos/{photoId}',
+    summary: 'One checked photo: its bytes with the detected type, nosniff and a sandboxing policy',
+    permission: 'jobs:read',
+    params: photoParams,
+    status: 200,
+    example: { params: { id: '1', photoId: '1' } },
+  },
+  {
     method: 'post',
     path: '/api/jobs/{id}/photos',
     summary:
@@ -539,7 +558,7 @@ export const ROUTES: readonly RouteSpec[] = [
     method: 'get',
     path: '/api/me',
     summary: 'The signed-in caller: id, name, role and scope',
-    permission: 'shops:read',
+    permission: 'account:read',
     status: 200,
   },
   {

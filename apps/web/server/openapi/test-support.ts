@@ -11,6 +11,13 @@ import type { Method } from './registry';
 /** The origin the tests' requests come from and go to, as a browser on the app's own page sends. */
 export const ORIGIN = 'http://127.0.0.1:3000';
 
+/** The headers a browser on the app's own page sends with a write: Host, Origin, Sec-Fetch-Site. */
+export const SAME_ORIGIN_HEADERS: Readonly<Record<string, string>> = {
+  host: new URL(ORIGIN).host,
+  origin: ORIGIN,
+  'sec-fetch-site': 'same-origin',
+};
+
 export const API_DIR = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../app/api');
 
 export type Handler = (
