@@ -406,7 +406,7 @@ function importCsv(
       reminder_consent: i % 2 ? 'yes' : 'no',
       reel_kind: ['spinning', 'baitcasting', 'fly', 'lever-drag'][i % 4]!,
       reel_maker: 'Brinehook',
-      reel_model: `Castmaster ${i % 6}`,
+      reel_model: `Moorlark ${i % 6}`,
       reel_size: '2500',
       bearing_count: '5',
       gear_ratio: '5.2:1',

@@ -11,7 +11,7 @@ export function importTemplateCsv(): string {
     reminder_consent: 'no',
     reel_kind: 'baitcasting',
     reel_maker: 'Brinehook',
-    reel_model: 'Castmaster',
+    reel_model: 'Moorlark 25',
     reel_size: '150',
     use_profile: 'light',
     water: 'fresh',

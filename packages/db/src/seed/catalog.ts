@@ -166,7 +166,7 @@ export const REEL_MODELS: Record<ReelKind, readonly ReelModel[]> = {
     },
     {
       maker: 'Kestrel Forge',
-      model: 'Featherlight',
+      model: 'Moorlark 25',
       sizes: ['1000', '2000', '2500'],
       bearings: [7, 9],
       ratios: ['6.0:1', '6.2:1'],
@@ -196,7 +196,7 @@ export const REEL_MODELS: Record<ReelKind, readonly ReelModel[]> = {
     },
     {
       maker: 'Kestrel Forge',
-      model: 'Talon LP',
+      model: 'Ashbeck LP',
       sizes: ['100', '150'],
       bearings: [9, 11],
       ratios: ['7.3:1', '8.3:1'],
@@ -226,7 +226,7 @@ export const REEL_MODELS: Record<ReelKind, readonly ReelModel[]> = {
     },
     {
       maker: 'Brinemark',
-      model: 'Pier Master',
+      model: 'Quayhollow 40',
       sizes: ['30', '40'],
       bearings: [3, 4],
       ratios: ['3.5:1', '4.1:1'],
