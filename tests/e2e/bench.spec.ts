@@ -61,6 +61,8 @@ test.describe('technician at Marram Point', () => {
     await expect(summary.getByRole('link', { name: 'Choose the kind of reel' })).toBeVisible();
     await expect(summary.getByRole('link', { name: 'Choose a service' })).toBeVisible();
 
+    // Hooks left on a reel are the first hazard of a check-in.
+    await expect(page.getByText(/hooks or lures still tied on/)).toBeVisible();
     await page.getByLabel('Kind').selectOption({ label: 'Spinning' });
     await page.getByLabel('Maker').fill('Inventa Reelworks');
     await page.getByLabel('Model', { exact: true }).fill('Testline');
@@ -97,6 +99,10 @@ test.describe('technician at Marram Point', () => {
     const checklist = page.getByRole('region', { name: 'Service checklist' });
     await expect(checklist.getByText(/Caution:/).first()).toBeVisible();
     await expect(checklist.getByText(/safety data sheets/)).toBeVisible();
+    // The usual cautions sit beside the steps that need them (compressed air, grease, line under load).
+    await expect(checklist.getByText(/never spin a bearing with the air jet/)).toBeVisible();
+    await expect(checklist.getByText(/grease and oil irritate skin/).first()).toBeVisible();
+    await expect(checklist.getByText(/Line under load can snap back/).first()).toBeVisible();
     const boxes = checklist.getByRole('checkbox');
     const count = await boxes.count();
     expect(count).toBeGreaterThan(5);

@@ -450,18 +450,42 @@ export interface StepDef {
   appliesTo?: readonly ReelKind[];
 }
 
+const SDS = "Follow the product's safety data sheet and local regulations.";
 const GLOVES =
   'Wear chemical-resistant gloves and work with good ventilation when using degreasers and ' +
-  "solvents. Follow the product's safety data sheet and local regulations.";
+  `solvents. ${SDS}`;
+const FLAMMABLE =
+  'Most degreasers and solvents are flammable: keep them away from flames, heaters, hot ' +
+  'tools and sparks, and close the container between uses. ' +
+  GLOVES;
+const AIR =
+  'If you dry with compressed air, wear eye protection, keep the pressure within what local ' +
+  'rules allow, never spin a bearing with the air jet (it can burst) and never point the nozzle ' +
+  'at skin; or let parts air-dry on a clean rack. ' +
+  GLOVES;
+const GREASE =
+  'Reel grease and oil irritate skin with repeated contact: wear nitrile gloves, wipe spills and ' +
+  `wash your hands before eating or smoking. ${SDS}`;
 const EYES =
   'Wear eye protection when releasing springs (bail, click and anti-reverse springs, drag ' +
   'springs): they can fly out under tension. Work over a parts tray.';
+const HOOKS =
+  'Reels often arrive with hooks or lures still tied on: remove and cap them before handling ' +
+  'the reel, cut line away from your body with a line cutter and put the cut line in a closed bin.';
+const THREAD_LOCKER =
+  'Thread-locker can irritate skin and eyes: use it sparingly, wear gloves and follow its ' +
+  'safety data sheet. ' +
+  EYES;
+const LINE_UNDER_LOAD =
+  'Line under load can snap back: wear eye protection, keep your face out of the line of pull ' +
+  'and never wrap line around your hand.';
 const DISPOSAL =
   'Collect used solvent and soaked rags in a closed, labelled metal container and dispose of ' +
   'them as local regulations require; oily rags can heat up and catch fire.';
 
 export const SAFETY_NOTICE =
-  'Degreasers and solvents, springs under tension and small parts can hurt people. The cautions ' +
+  'Degreasers and solvents, springs under tension, hooks, grease, compressed air, line under load ' +
+  'and small parts can hurt people. The cautions ' +
   "below are the usual ones; the product's safety data sheets, local regulations and licensed " +
   'practice come first.';
 
@@ -471,6 +495,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'teardown.photograph',
     title: 'Photograph the reel before and during teardown',
     instructions: 'Take check-in and teardown photos so the reel can be put back together exactly.',
+    safetyCaution: HOOKS,
     required: true,
   },
   {
@@ -486,7 +511,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'cleaning.degrease',
     title: 'Degrease gears, frame and spool shaft',
     instructions: 'Remove all old grease and salt; dry completely before lubricating.',
-    safetyCaution: GLOVES,
+    safetyCaution: FLAMMABLE,
     required: true,
   },
   {
@@ -494,7 +519,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'cleaning.bearings',
     title: 'Clean and spin-check every bearing',
     instructions: 'Replace any bearing that stays gritty or rough after cleaning.',
-    safetyCaution: GLOVES,
+    safetyCaution: AIR,
     required: true,
   },
   {
@@ -552,6 +577,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'lubrication.gears',
     title: 'Grease gears with reel-specific grease',
     instructions: 'A thin, even film; excess grease slows the reel and collects grit.',
+    safetyCaution: GREASE,
     required: true,
     appliesTo: ['spinning', 'baitcasting', 'conventional', 'lever_drag', 'spincast'],
   },
@@ -560,6 +586,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'lubrication.bearings',
     title: 'Oil bearings and bushings with light reel oil',
     instructions: 'One drop per bearing; no grease in cast-control bearings.',
+    safetyCaution: GREASE,
     required: true,
   },
   {
@@ -567,6 +594,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'drag.washers',
     title: 'Service the drag washers',
     instructions: 'Clean, then re-grease carbon washers with drag grease or replace glazed ones.',
+    safetyCaution: GREASE,
     required: true,
   },
   {
@@ -582,6 +610,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'drag.setting',
     title: 'Check the drag range with a scale',
     instructions: 'Record the maximum drag; it must be smooth across the range.',
+    safetyCaution: LINE_UNDER_LOAD,
     required: true,
   },
   {
@@ -589,7 +618,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'reassembly.reassemble',
     title: 'Reassemble and tighten screws as specified',
     instructions: 'Thread-locker only where the maker calls for it.',
-    safetyCaution: EYES,
+    safetyCaution: THREAD_LOCKER,
     required: true,
   },
   {
@@ -604,6 +633,7 @@ export const STANDARD_STEPS: readonly StepDef[] = [
     code: 'test_crank.under_load',
     title: 'Test-crank under load',
     instructions: 'Listen for noise; check drag, anti-reverse and bail or level wind once more.',
+    safetyCaution: LINE_UNDER_LOAD,
     required: true,
   },
   {

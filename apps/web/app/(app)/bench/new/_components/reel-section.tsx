@@ -32,6 +32,11 @@ export function ReelSection({ form }: { form: CheckInState }) {
   const existing = form.chosen !== null && form.chosen !== 'new' ? form.chosen : null;
   return (
     <Section title="2. Reel" id="ci-section-reel">
+      <p className="rounded-md border border-amber-300 bg-amber-50 px-4 py-3 text-amber-950">
+        <span className="font-semibold">Caution: </span>
+        reels often come in with hooks or lures still tied on. Remove and cap them before you handle
+        the reel, and cut line away from your body.
+      </p>
       {existing && existing.reels.length > 0 && (
         <ChoiceFieldset
           path="reel"

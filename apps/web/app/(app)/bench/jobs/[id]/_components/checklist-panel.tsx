@@ -9,8 +9,22 @@ import { ErrorNote } from './error-note';
 import { useJobMutation } from './use-job-mutation';
 
 const DEFAULT_SAFETY =
-  'Degreasers and solvents, springs under tension and small parts can hurt people. Follow the ' +
-  'product’s safety data sheets, local regulations and licensed practice first.';
+  'Degreasers and solvents, springs under tension, hooks left on a reel, grease on skin, ' +
+  'compressed air and line under load can hurt people: wear gloves and eye protection, keep ' +
+  'solvents away from flames and heat, and wash your hands after work. The product’s safety ' +
+  'data sheets, local regulations and licensed practice come first.';
+
+function SafetyNotice({ text }: { text: string | null }) {
+  return (
+    <aside
+      aria-label="Safety"
+      className="mb-5 rounded-md border border-amber-300 bg-amber-50 px-4 py-3 text-amber-950"
+    >
+      <p className="font-semibold">Safety</p>
+      <p className="mt-1">{text ?? DEFAULT_SAFETY}</p>
+    </aside>
+  );
+}
 
 /**
  * The checklist of the standard version the job was checked in under, grouped as the standard
@@ -47,6 +61,7 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
   if (!checklist.standard)
     return (
       <Panel title="Service checklist">
+        <SafetyNotice text={null} />
         <p className="text-slate-700">
           This job was recorded without a service standard (for example, imported from another
           system), so it has no checklist.
@@ -63,13 +78,7 @@ export function ChecklistPanel({ job, canWrite }: { job: JobDetailJson; canWrite
           : '; every required step is done.'
       }`}
     >
-      <aside
-        aria-label="Safety"
-        className="mb-5 rounded-md border border-amber-300 bg-amber-50 px-4 py-3 text-amber-950"
-      >
-        <p className="font-semibold">Safety</p>
-        <p className="mt-1">{checklist.standard.safetyNotice ?? DEFAULT_SAFETY}</p>
-      </aside>
+      <SafetyNotice text={checklist.standard.safetyNotice} />
       {job.incompleteChecklistReason && (
         <p className="mb-5 rounded-md border border-brass-200 bg-brass-50 px-4 py-3 text-brass-900">
           <span className="font-semibold">Marked ready with steps unticked:</span>{' '}
