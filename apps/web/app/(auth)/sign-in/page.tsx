@@ -33,14 +33,34 @@ export default async function SignInPage({
           </p>
         </div>
         <p className="text-sm text-sand-300">Saltwick &amp; Spool Reel Care · franchise network</p>
+        {/* Line paid out across the panel in long casts, each leaving the last along its tangent. */}
         <svg
           aria-hidden="true"
-          className="pointer-events-none absolute -right-24 -bottom-24 size-96 text-sea-700"
-          viewBox="0 0 200 200"
+          className="pointer-events-none absolute right-0 bottom-0 h-80 w-full text-sea-700"
+          viewBox="0 0 400 200"
+          preserveAspectRatio="xMaxYMax slice"
         >
-          <circle cx="100" cy="100" r="90" fill="none" stroke="currentColor" strokeWidth="14" />
-          <circle cx="100" cy="100" r="58" fill="none" stroke="currentColor" strokeWidth="6" />
-          <circle cx="100" cy="100" r="14" fill="currentColor" />
+          <path
+            d="M0 190C90 180 160 140 220 90S330 20 400 14"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="6"
+            strokeLinecap="round"
+          />
+          <path
+            d="M60 200C150 186 210 160 270 120S350 66 400 60"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="3"
+            strokeLinecap="round"
+          />
+          <path
+            d="M150 200C220 192 280 176 330 150S380 120 400 116"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="2"
+            strokeLinecap="round"
+          />
         </svg>
       </section>
       <section className="flex items-center justify-center p-6 sm:p-12">
