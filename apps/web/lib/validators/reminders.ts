@@ -23,3 +23,9 @@ export const sendInput = z.strictObject({
 export type SendInput = z.infer<typeof sendInput>;
 
 export const batchesQuery = z.object({ shop: idParam.optional() });
+
+/** The token of an unsubscribe link: URL-safe base64, as the reminder sender makes it. */
+export const UNSUBSCRIBE_TOKEN = /^[A-Za-z0-9_-]{16,128}$/;
+export const unsubscribeParams = z.object({
+  token: z.string().regex(UNSUBSCRIBE_TOKEN, 'Not an unsubscribe link'),
+});

@@ -87,6 +87,29 @@ describe('e-mail outbox', () => {
     expect(received).toHaveLength(1);
   });
 
+  it('customer – a reminder carries List-Unsubscribe and List-Unsubscribe-Post (RFC 8058 §3.1); a pickup notice does not', async () => {
+    const url = 'https://reelwright.test/api/unsubscribe/abcdefghijklmnop';
+    await queueEmail(handle.db, {
+      ...message('reminded@example.test'),
+      kind: 'service_reminder',
+      listUnsubscribeUrl: url,
+    });
+    await queueEmail(handle.db, message('pickup@example.test'));
+    expect(await deliverPending({ db: handle.db, smtpUrl })).toEqual({ sent: 2, failed: 0 });
+    const headerLines = (to: string) =>
+      received
+        .find((m) => (m.to as { text: string }).text === to)!
+        // Unfolded (RFC 5322 §2.2.3): a long header may continue on the next line.
+        .headerLines.map((h) => h.line.replace(/\r\n[ \t]+/g, ' '));
+    // RFC 8058 §3.1: List-Unsubscribe holds an https URI in angle brackets, and the POST header
+    // the exact value "List-Unsubscribe=One-Click".
+    const reminder = headerLines('reminded@example.test');
+    expect(reminder).toContain(`List-Unsubscribe: <${url}>`);
+    expect(reminder).toContain('List-Unsubscribe-Post: List-Unsubscribe=One-Click');
+    const pickup = headerLines('pickup@example.test');
+    expect(pickup.filter((line) => /^list-/i.test(line))).toEqual([]);
+  });
+
   it('records a refused message as failed, counts the attempt, and retries after the backoff', async () => {
     const id = await queueEmail(handle.db, message('later@example.test'));
     refuse = 'Mailbox temporarily unavailable';

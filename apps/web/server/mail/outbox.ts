@@ -15,6 +15,8 @@ export interface QueuedEmail {
   /** What the message is about, for links and de-duplication (e.g. 'job', 12). */
   entityType?: string;
   entityId?: number;
+  /** A one-click opt-out URL (RFC 8058), for messages a customer can stop. */
+  listUnsubscribeUrl?: string;
 }
 
 /**
@@ -37,6 +39,7 @@ export async function queueEmail(tx: Tx | Db, message: QueuedEmail): Promise<num
       shopId: message.shopId ?? null,
       entityType: message.entityType ?? (message.jobId ? 'job' : null),
       entityId: message.entityId ?? message.jobId ?? null,
+      listUnsubscribeUrl: message.listUnsubscribeUrl ?? null,
     })
     .returning({ id: emails.id });
   if (!row) throw new Error('queueEmail: insert returned no row');
@@ -132,6 +135,10 @@ export async function deliverPending(options: DeliverOptions = {}): Promise<Deli
           subject: message.subject,
           text: message.textBody,
           html: message.htmlBody ?? undefined,
+          ...(message.listUnsubscribeUrl && {
+            list: { unsubscribe: message.listUnsubscribeUrl },
+            headers: { 'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click' },
+          }),
         });
         await conn
           .update(emails)

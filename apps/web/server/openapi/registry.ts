@@ -40,7 +40,7 @@ import {
   shopTrendsQuery,
 } from '~/lib/validators/network';
 import { photoConfirmRequest, photoParams, photoUploadRequest } from '~/lib/validators/photos';
-import { batchesQuery, dueQuery, sendInput } from '~/lib/validators/reminders';
+import { batchesQuery, dueQuery, sendInput, unsubscribeParams } from '~/lib/validators/reminders';
 import { shopCalendarInput } from '~/lib/validators/shops';
 
 // Every API route in one list: path, method, who may call it and the zod schemas its handler
@@ -764,6 +764,28 @@ export const ROUTES: readonly RouteSpec[] = [
     summary: 'Every person in the network with role and scope (owner only)',
     permission: 'users:manage',
     status: 200,
+  },
+  {
+    method: 'get',
+    path: '/api/unsubscribe/{token}',
+    summary: "Redirects to the opt-out page of a service reminder's link (changes nothing)",
+    permission: 'public',
+    params: unsubscribeParams,
+    example: { params: { token: 'abcdefghijklmnopqrstuv' } },
+    status: 303,
+    notFuzzed: 'the token is checked against the database only; its own tests send bad tokens',
+  },
+  {
+    method: 'post',
+    path: '/api/unsubscribe/{token}',
+    summary:
+      'One-click opt-out from service reminders (RFC 8058): a form body List-Unsubscribe=One-Click',
+    permission: 'public',
+    params: unsubscribeParams,
+    example: { params: { token: 'abcdefghijklmnopqrstuv' } },
+    bodyType: 'raw',
+    status: 200,
+    notFuzzed: 'a form body per RFC 8058: its own tests send wrong bodies, types and tokens',
   },
   {
     method: 'post',

@@ -1,5 +1,6 @@
 import { eq } from '@reelwright/db';
 import { customers, emails, reels, remindersSent, unsubscribeTokens } from '@reelwright/db/schema';
+import { NextRequest } from 'next/server';
 import nodemailer from 'nodemailer';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
@@ -8,6 +9,7 @@ import { buildMonthCloseNetwork } from '../month-close/test-network';
 import { dueReminders } from './due';
 import { getBatch, runBatch, startReminderBatch } from './send';
 import { unsubscribe, unsubscribeStatus } from './unsubscribe';
+import { GET as openPage, POST as oneClick } from '~/app/api/unsubscribe/[token]/route';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 
@@ -186,6 +188,7 @@ describe('service reminders', () => {
     const link = /https:\/\/reelwright\.test\/unsubscribe\/([A-Za-z0-9_-]+)/.exec(mail!.textBody);
     expect(link).not.toBeNull();
     expect(mail!.htmlBody).toContain(`href="${link![0]}"`);
+    expect(mail!.listUnsubscribeUrl).toBe(`${BASE_URL}/api/unsubscribe/${link![1]}`);
 
     // Opening the link only reads: the customer is still subscribed until they confirm.
     expect(await unsubscribeStatus(link![1]!)).toEqual({
@@ -209,5 +212,52 @@ describe('service reminders', () => {
 
     const eight = await dueReminders(net.leadDune, net.shops.dune.id, 8, { now: NOW });
     expect(eight.reels.find((r) => r.reelId === reel['Heavy-april'])?.reminder).toBe('no_consent');
+  });
+
+  it("customer – the mail client's one-click button (RFC 8058) opts out with a form POST", async () => {
+    const conn = state.handle!.db;
+    const [mail] = await conn.select().from(emails).where(eq(emails.toAddress, 'dee@example.test'));
+    const url = mail!.listUnsubscribeUrl!;
+    const token = url.split('/').at(-1)!;
+    const post = (body: BodyInit, headers: Record<string, string>, t = token) =>
+      oneClick(
+        new NextRequest(`${BASE_URL}/api/unsubscribe/${t}`, { method: 'POST', headers, body }),
+        { params: Promise.resolve({ token: t }) },
+      );
+    const form = { 'content-type': 'application/x-www-form-urlencoded' };
+    const consent = async () =>
+      (await conn.select().from(customers).where(eq(customers.id, customer.Dee!)))[0]!
+        .reminderConsent;
+
+    // Anything but the exact one-click body, or from a browser on another site, changes nothing.
+    expect((await post('List-Unsubscribe=Maybe', form)).status).toBe(400);
+    expect(
+      (await post('{"List-Unsubscribe":"One-Click"}', { 'content-type': 'application/json' }))
+        .status,
+    ).toBe(415);
+    expect(
+      (await post('List-Unsubscribe=One-Click', { ...form, origin: 'http://evil.example' })).status,
+    ).toBe(403);
+    expect((await post('List-Unsubscribe=One-Click', form, 'no-such-token-0000')).status).toBe(404);
+    expect(await consent()).toBe(true);
+
+    // RFC 8058 §3.2: the mail server's POST carries no cookie and no Origin.
+    const done = await post('List-Unsubscribe=One-Click', form);
+    expect(done.status).toBe(200);
+    expect(await done.json()).toEqual({
+      unsubscribed: true,
+      shop: 'Dune Test Shop',
+      changed: true,
+    });
+    expect(await consent()).toBe(false);
+    const multipart = new FormData();
+    multipart.set('List-Unsubscribe', 'One-Click');
+    const again = await post(multipart, {});
+    expect(await again.json()).toMatchObject({ changed: false });
+
+    // Opening the header's link in a browser shows the page that asks first.
+    const page = await openPage(new NextRequest(url), { params: Promise.resolve({ token }) });
+    expect(page.status).toBe(303);
+    expect(page.headers.get('location')).toBe(`${BASE_URL}/unsubscribe/${token}`);
   });
 });

@@ -154,6 +154,7 @@ async function sendOne(
       .returning({ id: remindersSent.id });
     if (!claim) return 'skipped';
     const token = await unsubscribeToken(tx, item.customer.id);
+    const base = baseUrl.replace(/\/$/, '');
     const message = serviceReminderEmail({
       shopName: shop.name,
       customerName: customer.name,
@@ -161,7 +162,7 @@ async function sendOne(
       lastServicedOn: item.lastServicedOn,
       dueOn: item.dueOn,
       useProfile: item.useProfile,
-      unsubscribeUrl: `${baseUrl.replace(/\/$/, '')}/unsubscribe/${token}`,
+      unsubscribeUrl: `${base}/unsubscribe/${token}`,
       shopPhone: shop.phone,
       shopEmail: shop.email,
     });
@@ -174,6 +175,8 @@ async function sendOne(
       shopId: shop.id,
       entityType: 'reminder',
       entityId: claim.id,
+      // Mail clients post here for their own "unsubscribe" button (RFC 8058 one-click).
+      listUnsubscribeUrl: `${base}/api/unsubscribe/${token}`,
     });
     await tx.update(remindersSent).set({ emailId }).where(eq(remindersSent.id, claim.id));
     return 'sent';

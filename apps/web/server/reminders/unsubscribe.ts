@@ -1,5 +1,6 @@
 import { eq } from '@reelwright/db';
 import { activityLog, customers, shops, unsubscribeTokens } from '@reelwright/db/schema';
+import { UNSUBSCRIBE_TOKEN } from '~/lib/validators/reminders';
 import { db } from '../db';
 
 export interface UnsubscribeResult {
@@ -7,8 +8,6 @@ export interface UnsubscribeResult {
   /** True when this visit recorded the opt-out; false when it was already recorded. */
   changed: boolean;
 }
-
-const TOKEN = /^[A-Za-z0-9_-]{16,128}$/;
 
 /**
  * What the unsubscribe page shows before anything changes: the shop and whether the customer
@@ -18,7 +17,7 @@ const TOKEN = /^[A-Za-z0-9_-]{16,128}$/;
 export async function unsubscribeStatus(
   token: string,
 ): Promise<{ shopName: string; subscribed: boolean } | null> {
-  if (!TOKEN.test(token)) return null;
+  if (!UNSUBSCRIBE_TOKEN.test(token)) return null;
   const conn = await db();
   const [row] = await conn
     .select({ shopName: shops.name, subscribed: customers.reminderConsent })
@@ -37,7 +36,7 @@ export async function unsubscribe(
   token: string,
   now = new Date(),
 ): Promise<UnsubscribeResult | null> {
-  if (!TOKEN.test(token)) return null;
+  if (!UNSUBSCRIBE_TOKEN.test(token)) return null;
   const conn = await db();
   return conn.transaction(async (tx) => {
     const [row] = await tx

@@ -27,6 +27,11 @@ export const emails = pgTable(
     /** What the e-mail is about, e.g. "comeback" / 12, for links and de-duplication. */
     entityType: text('entity_type'),
     entityId: integer('entity_id'),
+    /**
+     * For a message a customer can opt out of (a service reminder): the one-click opt-out URL
+     * sent as `List-Unsubscribe` with `List-Unsubscribe-Post` (RFC 8058).
+     */
+    listUnsubscribeUrl: text('list_unsubscribe_url'),
     createdAt: createdAt(),
   },
   (t) => [
