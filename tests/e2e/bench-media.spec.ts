@@ -119,7 +119,7 @@ test.describe('photos on the bench', () => {
       'content-type': 'image/png',
       'x-content-type-options': 'nosniff',
       'content-disposition': `inline; filename="job-${jobId}-teardown-${photo.id}.png"`,
-      'content-security-policy': "default-src 'none'; sandbox",
+      'content-security-policy': "default-src 'none'; frame-ancestors 'none'; sandbox",
     });
     expect(await file.body()).toEqual(pngImage());
 
@@ -300,7 +300,7 @@ test('auditor – sees a sampled job’s photo through the round, served as the 
   expect(file.headers()).toMatchObject({
     'content-type': 'image/png',
     'x-content-type-options': 'nosniff',
-    'content-security-policy': "default-src 'none'; sandbox",
+    'content-security-policy': "default-src 'none'; frame-ancestors 'none'; sandbox",
   });
   expect(await file.body()).toEqual(png);
   // The bench's route is not the auditor's.

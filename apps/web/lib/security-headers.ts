@@ -14,8 +14,12 @@ export const STATIC_SECURITY_HEADERS: readonly { key: string; value: string }[] 
   { key: 'X-Frame-Options', value: 'DENY' },
 ];
 
-/** API answers are data, never documents: nothing in them may load, run or be framed. */
-export const API_CONTENT_SECURITY_POLICY = "default-src 'none'; frame-ancestors 'none'";
+/**
+ * API answers are data, never documents: nothing in them may load, run or be framed, and one
+ * opened as a page (a photo, say) runs sandboxed, as an opaque origin without scripts.
+ * next.config.ts puts it on every /api response, replacing whatever a route set.
+ */
+export const API_CONTENT_SECURITY_POLICY = "default-src 'none'; frame-ancestors 'none'; sandbox";
 
 /**
  * The pages' policy. Scripts run only with this response's nonce (Next puts it on its own

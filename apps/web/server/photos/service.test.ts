@@ -131,7 +131,7 @@ describe('photo uploads', () => {
       'content-length': String(jpegImage().length),
       'x-content-type-options': 'nosniff',
       'content-disposition': `inline; filename="job-${jobId}-teardown-${ticket.photoId}.jpg"`,
-      'content-security-policy': "default-src 'none'; sandbox",
+      'content-security-policy': "default-src 'none'; frame-ancestors 'none'; sandbox",
     });
     expect(bytes).toEqual(jpegImage());
     const list = await listPhotos(net.as.tech, jobId);

@@ -6,6 +6,7 @@ import {
   type PhotoStage,
   type PhotoUploadRequest,
 } from '~/lib/validators/photos';
+import { API_CONTENT_SECURITY_POLICY } from '~/lib/security-headers';
 import { db } from '../db';
 import { ApiError, badRequest, notFound } from '../errors';
 import type { Principal } from '../principal';
@@ -251,7 +252,7 @@ export async function photoResponse(jobId: number, photoId: number): Promise<Res
       'content-length': String(object.size),
       'content-disposition': `${extension ? 'inline' : 'attachment'}; filename="${name}"`,
       'x-content-type-options': 'nosniff',
-      'content-security-policy': "default-src 'none'; sandbox",
+      'content-security-policy': API_CONTENT_SECURITY_POLICY,
       'cross-origin-resource-policy': 'same-origin',
       // A checked photo never changes under its id; access is checked again once this expires.
       'cache-control': 'private, max-age=3600',
