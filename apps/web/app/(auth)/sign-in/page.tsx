@@ -19,11 +19,11 @@ export default async function SignInPage({
   return (
     <main className="grid min-h-screen lg:grid-cols-[minmax(0,5fr)_minmax(0,4fr)]">
       <section className="relative hidden flex-col justify-between overflow-hidden bg-sea-800 p-12 text-sand-100 lg:flex">
-        <div className="flex items-center gap-3">
+        <div className="relative z-10 flex items-center gap-3">
           <Logo className="size-11" />
           <span className="text-2xl font-semibold tracking-tight text-white">Reelwright</span>
         </div>
-        <div className="max-w-md">
+        <div className="relative z-10 max-w-md">
           <p className="text-4xl leading-tight font-semibold text-white">
             One standard at every bench.
           </p>
@@ -32,18 +32,21 @@ export default async function SignInPage({
             the network, in one place.
           </p>
         </div>
-        <p className="text-sm text-sand-300">Saltwick &amp; Spool Reel Care · franchise network</p>
+        <p className="relative z-10 text-sm text-sand-300">
+          Saltwick &amp; Spool Reel Care · franchise network
+        </p>
         {/* Line paid out across the panel in long casts, each leaving the last along its tangent. */}
         <svg
           aria-hidden="true"
-          className="pointer-events-none absolute right-0 bottom-0 h-80 w-full text-sea-700"
+          className="pointer-events-none absolute right-0 bottom-16 h-72 w-full text-sea-700"
           viewBox="0 0 400 200"
-          preserveAspectRatio="xMaxYMax slice"
+          preserveAspectRatio="none"
         >
           <path
-            d="M0 190C90 180 160 140 220 90S330 20 400 14"
+            d="M0 190C90 180 160 140 220 90S330 24 400 20"
             fill="none"
             stroke="currentColor"
+            vectorEffect="non-scaling-stroke"
             strokeWidth="6"
             strokeLinecap="round"
           />
@@ -51,6 +54,7 @@ export default async function SignInPage({
             d="M60 200C150 186 210 160 270 120S350 66 400 60"
             fill="none"
             stroke="currentColor"
+            vectorEffect="non-scaling-stroke"
             strokeWidth="3"
             strokeLinecap="round"
           />
@@ -58,6 +62,7 @@ export default async function SignInPage({
             d="M150 200C220 192 280 176 330 150S380 120 400 116"
             fill="none"
             stroke="currentColor"
+            vectorEffect="non-scaling-stroke"
             strokeWidth="2"
             strokeLinecap="round"
           />
