@@ -33,7 +33,7 @@ pnpm --filter @reelwright/web build >/tmp/reelwright-demo-build.log 2>&1 || {
 echo "› preparing the database"
 # The demo's two years of work end now, so "this week" and the open jobs read as today's.
 pnpm --silent --filter @reelwright/db seed --now="$(date -u +%Y-%m-%dT%H:%M:00Z)"
-# Audit rounds of the last four months, planned and scored by the product itself (first run only).
+# Audit rounds of the last twelve whole months, planned and scored by the product itself (first run only).
 pnpm --silent --filter @reelwright/web demo:audits
 
 # Photos and e-mail: real storage / SMTP when configured, otherwise the local fakes.
