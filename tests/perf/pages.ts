@@ -5,7 +5,7 @@
 // the JavaScript sent (gzip as transferred, and raw), time to first byte, first contentful paint,
 // and the time until the page's figures are visible. Figures are printed, never asserted; the
 // budgets beside them are the project's (README "Page weight and speed").
-import { chromium, type Page } from '@playwright/test';
+import { chromium, type Page, type Response } from '@playwright/test';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import { loadavg } from 'node:os';
@@ -114,7 +114,7 @@ interface Figures {
 
 async function measure(page: Page, url: string, spec: PageSpec): Promise<Figures> {
   const scripts: Promise<{ gzip: number; raw: number }>[] = [];
-  const onResponse = (response: import('@playwright/test').Response) => {
+  const onResponse = (response: Response) => {
     if (response.request().resourceType() !== 'script') return;
     scripts.push(
       Promise.all([response.request().sizes(), response.body().catch(() => Buffer.alloc(0))]).then(
