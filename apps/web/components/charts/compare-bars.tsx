@@ -1,27 +1,21 @@
 'use client';
 
-import { BarChart } from '@tremor/react';
+import dynamic from 'next/dynamic';
+import { useInView } from './use-in-view';
+import type { CompareBarsProps } from './compare-bars-tremor';
 
-/** Horizontal bars comparing one figure across groups (Tremor). */
-export function CompareBars(props: {
-  data: { label: string; value: number | null }[];
-  seriesName: string;
-  valueFormatter: (v: number) => string;
-  colour?: string;
-}) {
-  const rows = props.data.map((d) => ({ label: d.label, [props.seriesName]: d.value ?? 0 }));
+// Tremor and its chart library weigh about 130 kB gzip: they load only when the chart scrolls
+// near the viewport, so a page's first load does not carry them.
+const Chart = dynamic(() => import('./compare-bars-tremor').then((m) => m.CompareBarsTremor), {
+  ssr: false,
+});
+
+/** Horizontal bars comparing one figure across groups, drawn once it comes into view. */
+export function CompareBars(props: CompareBarsProps) {
+  const [ref, inView] = useInView<HTMLDivElement>();
   return (
-    <BarChart
-      className="h-56"
-      data={rows}
-      index="label"
-      categories={[props.seriesName]}
-      colors={[props.colour ?? 'sea-600']}
-      layout="vertical"
-      valueFormatter={props.valueFormatter}
-      showLegend={false}
-      yAxisWidth={150}
-      showAnimation={false}
-    />
+    <div ref={ref} className={'h-56'}>
+      {inView && <Chart {...props} />}
+    </div>
   );
 }

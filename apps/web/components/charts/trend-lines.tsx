@@ -1,28 +1,21 @@
 'use client';
 
-import { LineChart } from '@tremor/react';
-import { SERIES_COLOURS } from './chart-figure';
+import dynamic from 'next/dynamic';
+import { useInView } from './use-in-view';
+import type { TrendLinesProps } from './trend-lines-tremor';
 
-/** One line per series over months (Tremor), in the brand's series colours. */
-export function TrendLines(props: {
-  data: Record<string, string | number | null>[];
-  series: string[];
-  valueFormatter: (v: number) => string;
-  height?: string;
-}) {
+// Tremor and its chart library weigh about 130 kB gzip: they load only when the chart scrolls
+// near the viewport, so a page's first load does not carry them.
+const Chart = dynamic(() => import('./trend-lines-tremor').then((m) => m.TrendLinesTremor), {
+  ssr: false,
+});
+
+/** One line per series over months, drawn once it comes into view. */
+export function TrendLines(props: TrendLinesProps) {
+  const [ref, inView] = useInView<HTMLDivElement>();
   return (
-    <LineChart
-      className={props.height ?? 'h-64'}
-      data={props.data}
-      index="month"
-      categories={props.series}
-      colors={props.series.map((_, i) => SERIES_COLOURS[i % SERIES_COLOURS.length]!.tremor)}
-      valueFormatter={props.valueFormatter}
-      connectNulls={false}
-      showLegend={false}
-      yAxisWidth={56}
-      autoMinValue={false}
-      showAnimation={false}
-    />
+    <div ref={ref} className={props.height ?? 'h-64'}>
+      {inView && <Chart {...props} />}
+    </div>
   );
 }
