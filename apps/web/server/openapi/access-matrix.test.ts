@@ -46,6 +46,7 @@ let world: World;
 let fingerprint: Record<string, string>;
 const counts = new Map<number, number>();
 let cases = 0;
+let unexpected = 0;
 
 beforeAll(async () => {
   // Upload URLs are signed for this address; nothing is sent there (object-store.ts).
@@ -68,7 +69,7 @@ afterAll(async () => {
     .sort(([a], [b]) => a - b)
     .map(([status, n]) => `${status}: ${n}`)
     .join(', ');
-  console.log(`access matrix (${TEST_TARGET}): ${cases} cases, ${byStatus}; 0 unexpected`);
+  console.log(`access matrix (${TEST_TARGET}): ${cases} cases, ${byStatus}; ${unexpected} unexpected`);
 });
 
 const inMatrix = ROUTES.filter((spec) => !NOT_IN_MATRIX[keyOf(spec)]);
@@ -113,7 +114,7 @@ describe(`access matrix (${TEST_TARGET}) – every route × caller × own, other
           if (which !== 'none') answers[which] = answer;
           const what = `${caller.name} × ${which} ${JSON.stringify(ref ?? {})}`;
           if (answer.status !== expected)
-            wrong.push(`${what}: expected ${expected}, got ${answer.status} ${answer.problemType ?? ''}`);
+            wrong.push(`${what}: expected ${expected}, got ${answer.status} ${answer.problemType ?? ''} ${answer.detail ?? ''}`);
           else if (answer.status >= 400 && !answer.contentType.includes('application/problem+json'))
             wrong.push(`${what}: ${answer.status} as ${answer.contentType}, not a problem document`);
         }
@@ -124,6 +125,7 @@ describe(`access matrix (${TEST_TARGET}) – every route × caller × own, other
               `(${missing.status} ${missing.problemType}) answer differently`,
           );
       }
+      unexpected += wrong.length;
       expect(wrong).toEqual([]);
       // Refusals and reads ran on the seeded data itself: none of them may have written.
       const after = await databaseFingerprint();

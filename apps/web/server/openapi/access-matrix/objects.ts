@@ -12,7 +12,8 @@ import type { World } from './world';
 //   are asked for on the own job.
 // - return job (linking a comeback by hand): a checked-in job whose reel was collected before.
 // - round, sample, sample photo: for the auditor, rounds assigned to them are own and the second
-//   auditor's are other; for everyone else, rounds of shops in scope. A sample is the round's
+//   auditor's are other; for a shop lead, their shop's decided rounds (an open round's sample is
+//   not shown to the shop); for everyone else, rounds of shops in scope. A sample is the round's
 //   first sampled job, with a photo added; missing samples are asked for in the own round.
 // - comeback, corrective action, reminder batch: one of the own / out-of-scope shop.
 // - month: months are closed for the whole network, so there is no other; 2026-11 is own.
@@ -103,7 +104,9 @@ export function chooseObject(
     case 'sample':
     case 'samplePhoto': {
       const mine = (r: World['rounds'][number]) =>
-        who?.role === 'auditor' ? r.auditorId === who.id : inScope.has(r.shopId);
+        who?.role === 'auditor'
+          ? r.auditorId === who.id
+          : inScope.has(r.shopId) && (who?.role !== 'shop_lead' || r.decided);
       const round = world.rounds.find((r) => (which === 'other' ? !mine(r) : mine(r)));
       if (!round) return undefined;
       if (kind === 'round') return { id: str(m ? MISSING_ID : round.id) };

@@ -51,6 +51,10 @@ export const BINDINGS: Record<string, Binding> = {
   'get /api/month-close/{month}': { kind: 'month' },
   'post /api/month-close/{month}/close': { kind: 'month' },
   'post /api/month-close/{month}/invoices': { kind: 'month' },
+  'get /api/dev/mail': {
+    status: 404,
+    why: 'no mail catcher is configured in the tests, and without one the route has nothing to show',
+  },
   'post /api/month-close/{month}/reopen': { kind: 'month' },
   'get /api/network/comparison': { kind: 'region', at: { query: 'region' } },
   'get /api/network/trends': { kind: 'region', at: { query: 'region' } },
@@ -73,6 +77,10 @@ export const OWN_ANSWERS: Record<string, { status: number; why: string }> = {
   'post /api/month-close/{month}/invoices': {
     status: 409,
     why: 'November is not closed in the seeded network, and only a closed month is invoiced',
+  },
+  'get /api/dev/mail': {
+    status: 404,
+    why: 'no mail catcher is configured in the tests, and without one the route has nothing to show',
   },
   'post /api/month-close/{month}/reopen': {
     status: 409,
@@ -140,14 +148,16 @@ function bodyFor(spec: RouteSpec, world: World, caller: Caller, ref: Ref | undef
     case 'patch /api/comebacks/{id}':
       return { symptom: 'Drag slips again under load' };
     case 'patch /api/corrective-actions':
-      return { status: 'in_progress' };
     case 'patch /api/corrective-actions/{id}':
-      return { status: 'in_progress' };
+      // The lead moves an action along; a manager or the owner edits it (and verifies it later).
+      return caller.principal?.role === 'shop_lead'
+        ? { status: 'in_progress' }
+        : { dueOn: '2026-12-24' };
     case 'post /api/jobs': {
       const shopId = caller.principal?.shopId;
       const tech = world.technicians.find((t) => t.shopId === shopId);
       const example = spec.example!.body as Record<string, unknown>;
-      return { ...example, technicianId: tech?.id ?? null };
+      return { ...example, technicianId: tech?.id ?? null, promisedOn: '2026-12-18' };
     }
     case 'patch /api/jobs/{id}':
       return { findings: 'Drag washers glazed; replaced' };
@@ -175,6 +185,8 @@ function importForm(): FormData {
   const headers = csv.split(/\r?\n/)[0]!.split(',');
   const form = new FormData();
   form.set('file', new File([csv], 'jobs.csv', { type: 'text/csv' }));
-  form.set('mapping', JSON.stringify(Object.fromEntries(headers.map((h) => [h, h]))));
+  // The template's example names a Marram Point technician: not a column every shop can take.
+  const mapped = headers.filter((h) => h !== 'technician_email');
+  form.set('mapping', JSON.stringify(Object.fromEntries(mapped.map((h) => [h, h]))));
   return form;
 }

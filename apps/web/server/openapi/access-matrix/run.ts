@@ -12,6 +12,8 @@ export interface Answer {
   contentType: string;
   /** The problem document's `type`, for answers of 400 and above. */
   problemType?: string;
+  /** The problem's detail and field errors, to say why when a case fails. */
+  detail?: string;
 }
 
 export function requestOf(spec: RouteSpec, input: Input): NextRequest {
@@ -40,13 +42,18 @@ export async function send(
     return { status: response.status, contentType };
   }
   const text = await response.text();
-  let problemType: string | undefined;
   try {
-    problemType = (JSON.parse(text) as { type?: string }).type;
+    const problem = JSON.parse(text) as { type?: string; detail?: string; errors?: unknown };
+    const detail = [problem.detail, problem.errors && JSON.stringify(problem.errors)];
+    return {
+      status: response.status,
+      contentType,
+      problemType: problem.type,
+      detail: detail.filter(Boolean).join(' '),
+    };
   } catch {
-    problemType = undefined;
+    return { status: response.status, contentType, detail: text.slice(0, 200) };
   }
-  return { status: response.status, contentType, problemType };
 }
 
 const ROLLBACK = Symbol('rollback');

@@ -9,6 +9,7 @@ import {
 } from '@reelwright/db/schema';
 import { DEFAULT_SEED_NOW, DEMO_ACCOUNTS, seedDemo } from '@reelwright/db/seed';
 import { addDemoAuditHistory } from '~/server/audits/demo-history';
+import { planRound } from '~/server/audits/plan';
 import { scopeOf, type Principal } from '~/server/principal';
 import { pngImage } from '~/server/photos/test-images';
 import { confirmedKey, putObject } from '~/server/storage';
@@ -41,6 +42,7 @@ export interface World {
     id: number;
     shopId: number;
     auditorId: number | null;
+    decided: boolean;
     jobId: number;
     photoId: number;
     itemIds: number[];
@@ -90,6 +92,16 @@ export async function buildWorld(): Promise<World> {
   const shops = await rows<{ id: number; regionId: number }>(
     sql`select id, region_id as "regionId" from shops order by id`,
   );
+  // Scored rounds are decided and take no more answers: each shop gets an open round for August,
+  // listed first below, so an auditor's own sample can be scored.
+  const owner = callers.find((c) => c.principal?.role === 'owner')!.principal!;
+  for (const shop of shops)
+    await planRound(owner, {
+      shopId: shop.id,
+      from: '2026-08-01',
+      to: '2026-08-31',
+      auditorId: auditor!.id,
+    });
   // The last shop's rounds go to the second auditor: out of the first one's scope.
   await db
     .update(auditRounds)
@@ -108,10 +120,18 @@ export async function buildWorld(): Promise<World> {
     openJobs.push({ ...job, partId: part!.id, photoId: await addPhoto(job.id, job.shopId) });
   }
 
-  const roundRows = await rows<{ id: number; shopId: number; auditorId: number | null; jobId: number; formId: number }>(sql`
+  const roundRows = await rows<{
+    id: number;
+    shopId: number;
+    auditorId: number | null;
+    decided: boolean;
+    jobId: number;
+    formId: number;
+  }>(sql`
     select r.id, r.shop_id as "shopId", r.auditor_id as "auditorId", r.form_id as "formId",
+      r.status = 'decided' as decided,
       (select min(s.job_id) from audit_samples s where s.round_id = r.id) as "jobId"
-    from audit_rounds r order by r.id`);
+    from audit_rounds r order by (r.status = 'decided'), r.id`);
   const rounds: World['rounds'] = [];
   for (const r of roundRows.filter((x) => x.jobId != null)) {
     const items = await rows<{ id: number }>(
@@ -121,6 +141,7 @@ export async function buildWorld(): Promise<World> {
       id: r.id,
       shopId: r.shopId,
       auditorId: r.auditorId,
+      decided: r.decided,
       jobId: r.jobId,
       photoId: await addPhoto(r.jobId, r.shopId),
       itemIds: items.map((i) => i.id),
@@ -156,9 +177,12 @@ export async function buildWorld(): Promise<World> {
       where j.state = 'checked_in' and not exists (select 1 from comebacks c where c.job_id = j.id)
       order by j.shop_id, j.id, o.collected_at desc`),
     rounds,
+    // A comeback is read from its original shop and the shop the reel came back to: only one
+    // that stayed in one shop is cleanly in or out of a caller's scope.
     comebacks: await rows(sql`
       select distinct on (j.shop_id) c.id, j.shop_id as "shopId" from comebacks c
-      join jobs j on j.id = c.job_id order by j.shop_id, (c.status = 'open') desc, c.id`),
+      join jobs j on j.id = c.job_id and j.shop_id = c.original_shop_id
+      order by j.shop_id, (c.status = 'open') desc, c.id`),
     actions,
     batches,
     rootCauses: await rows(sql`select id, label, active from root_causes order by position, id`),
