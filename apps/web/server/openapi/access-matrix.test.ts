@@ -1,5 +1,7 @@
+import type * as NextServer from 'next/server';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { env } from '~/env';
+import type * as Storage from '~/server/storage';
 import {
   closeMemoryDb,
   openTargetDb,
@@ -27,11 +29,11 @@ vi.mock('~/server/session', () =>
 // `after()` needs Next's request scope; the reminder send's follow-up work starts after the
 // answer, which is all the matrix looks at.
 vi.mock('~/server/storage', async (original) => ({
-  ...(await original<typeof import('~/server/storage')>()),
+  ...(await original<typeof Storage>()),
   ...(await import('./access-matrix/object-store')),
 }));
 vi.mock('next/server', async (original) => ({
-  ...(await original<typeof import('next/server')>()),
+  ...(await original<typeof NextServer>()),
   after: () => undefined,
 }));
 
@@ -69,7 +71,9 @@ afterAll(async () => {
     .sort(([a], [b]) => a - b)
     .map(([status, n]) => `${status}: ${n}`)
     .join(', ');
-  console.log(`access matrix (${TEST_TARGET}): ${cases} cases, ${byStatus}; ${unexpected} unexpected`);
+  console.log(
+    `access matrix (${TEST_TARGET}): ${cases} cases, ${byStatus}; ${unexpected} unexpected`,
+  );
 });
 
 const inMatrix = ROUTES.filter((spec) => !NOT_IN_MATRIX[keyOf(spec)]);
@@ -99,8 +103,14 @@ describe(`access matrix (${TEST_TARGET}) – every route × caller × own, other
         const answers: Partial<Record<Which, Answer>> = {};
         for (const which of objectsOf(spec)) {
           const ref =
-            which === 'none' ? undefined : chooseObject(world, caller.principal, binding!.kind, which);
-          if (which !== 'none' && !ref) continue;
+            which === 'none'
+              ? undefined
+              : chooseObject(world, caller.principal, binding!.kind, which);
+          if (which !== 'none' && !ref) {
+            // Only the owner, who sees everything, may lack an object; everyone has their own.
+            if (which === 'own') wrong.push(`${caller.name}: no own ${binding!.kind} in the seed`);
+            continue;
+          }
           state.principal = caller.principal;
           const input = inputFor(spec, world, caller, ref);
           const expected = expectedStatus(spec, caller, which);
@@ -114,12 +124,20 @@ describe(`access matrix (${TEST_TARGET}) – every route × caller × own, other
           if (which !== 'none') answers[which] = answer;
           const what = `${caller.name} × ${which} ${JSON.stringify(ref ?? {})}`;
           if (answer.status !== expected)
-            wrong.push(`${what}: expected ${expected}, got ${answer.status} ${answer.problemType ?? ''} ${answer.detail ?? ''}`);
+            wrong.push(
+              `${what}: expected ${expected}, got ${answer.status} ${answer.problemType ?? ''} ${answer.detail ?? ''}`,
+            );
           else if (answer.status >= 400 && !answer.contentType.includes('application/problem+json'))
-            wrong.push(`${what}: ${answer.status} as ${answer.contentType}, not a problem document`);
+            wrong.push(
+              `${what}: ${answer.status} as ${answer.contentType}, not a problem document`,
+            );
         }
         const { other, missing } = answers;
-        if (other && missing && (other.status !== missing.status || other.problemType !== missing.problemType))
+        if (
+          other &&
+          missing &&
+          (other.status !== missing.status || other.problemType !== missing.problemType)
+        )
           wrong.push(
             `${caller.name}: out of scope (${other.status} ${other.problemType}) and missing ` +
               `(${missing.status} ${missing.problemType}) answer differently`,

@@ -24,7 +24,12 @@ for (const spec of ROUTES) {
 }
 
 const cases = [...byFile].flatMap(([file, { path: p, methods }]) =>
-  HTTP_METHODS.filter((m) => !methods.includes(m)).map((method) => ({ file, path: p, method, methods })),
+  HTTP_METHODS.filter((m) => !methods.includes(m)).map((method) => ({
+    file,
+    path: p,
+    method,
+    methods,
+  })),
 );
 
 /** The path with every parameter filled, as a client would send it. */
@@ -35,7 +40,8 @@ describe('methods a route does not answer', () => {
     'anyone – %s is 405 problem+json with Allow',
     async (_name, c) => {
       const exports = (await import(path.join(API_DIR, c.file))) as Record<string, unknown>;
-      const handler = exports[c.method] as ((r: NextRequest) => Promise<Response> | Response) | undefined;
+      const handler = exports[c.method] as
+        ((r: NextRequest) => Promise<Response> | Response) | undefined;
       expect(handler, `${c.file} exports no ${c.method} stub`).toBeTypeOf('function');
       const body = c.method === 'GET' ? undefined : '{}';
       const request = new NextRequest(new URL(concrete(c.path), ORIGIN), {

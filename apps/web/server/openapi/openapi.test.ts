@@ -26,7 +26,8 @@ async function routeFileMethods(): Promise<string[]> {
     const exports = (await import(path.join(API_DIR, file))) as Record<string, unknown>;
     for (const method of METHODS) {
       const handler = exports[method.toUpperCase()];
-      if (typeof handler === 'function' && !isNotAllowedStub(handler)) out.push(`${method} ${file}`);
+      if (typeof handler === 'function' && !isNotAllowedStub(handler))
+        out.push(`${method} ${file}`);
     }
   }
   return out.sort();

@@ -22,7 +22,7 @@ export async function openObject(
 ): Promise<{ body: ReadableStream<Uint8Array>; size: number } | null> {
   const object = objects.get(key);
   if (!object) return null;
-  return { body: new Blob([object.bytes]).stream(), size: object.bytes.length };
+  return { body: new Blob([new Uint8Array(object.bytes)]).stream(), size: object.bytes.length };
 }
 
 export async function deleteObject(key: string): Promise<void> {

@@ -7,10 +7,11 @@ import type { World } from './world';
 // - shop: own = the first shop in scope (the lead's or technician's shop, the manager's region's
 //   first, any for the owner, the shops of the auditor's rounds); other = the first shop outside.
 // - region: the region of the own shop; other = a region with no shop in scope.
-// - job, part, photo: per shop, its first checked-in job, with a part line and a photo added;
+// - job, part, photo: per shop, its open job in the earliest state (checked in, on the bench,
+//   waiting for parts, ready: Fennel Cove's season has ended), with a part line and a photo added;
 //   own / other = that job of the own / the first out-of-scope shop. Missing parts and photos
 //   are asked for on the own job.
-// - return job (linking a comeback by hand): a checked-in job whose reel was collected before.
+// - return job (linking a comeback by hand): an open job whose reel was collected before.
 // - round, sample, sample photo: for the auditor, rounds assigned to them are own and the second
 //   auditor's are other; for a shop lead, their shop's decided rounds (an open round's sample is
 //   not shown to the shop); for everyone else, rounds of shops in scope. A sample is the round's
@@ -90,7 +91,7 @@ export function chooseObject(
     }
     case 'job':
     case 'returnJob': {
-      const job = byShop(kind === 'job' ? world.openJobs : world.returnJobs);
+      const job = kind === 'job' ? byShop(world.openJobs) : byShop(world.returnJobs);
       return job && { id: str(job.id) };
     }
     case 'part':

@@ -1,5 +1,6 @@
 import { importTemplateCsv } from '~/lib/import-template';
 import { can } from '~/lib/permissions';
+import { NEXT_STATES } from '~/lib/validators/jobs';
 import type { RouteSpec } from '../registry';
 import type { Kind, Ref, Which } from './objects';
 import type { Caller, World } from './world';
@@ -51,10 +52,6 @@ export const BINDINGS: Record<string, Binding> = {
   'get /api/month-close/{month}': { kind: 'month' },
   'post /api/month-close/{month}/close': { kind: 'month' },
   'post /api/month-close/{month}/invoices': { kind: 'month' },
-  'get /api/dev/mail': {
-    status: 404,
-    why: 'no mail catcher is configured in the tests, and without one the route has nothing to show',
-  },
   'post /api/month-close/{month}/reopen': { kind: 'month' },
   'get /api/network/comparison': { kind: 'region', at: { query: 'region' } },
   'get /api/network/trends': { kind: 'region', at: { query: 'region' } },
@@ -74,13 +71,13 @@ export const BINDINGS: Record<string, Binding> = {
  * seeded objects cannot make belong here.
  */
 export const OWN_ANSWERS: Record<string, { status: number; why: string }> = {
-  'post /api/month-close/{month}/invoices': {
-    status: 409,
-    why: 'November is not closed in the seeded network, and only a closed month is invoiced',
-  },
   'get /api/dev/mail': {
     status: 404,
     why: 'no mail catcher is configured in the tests, and without one the route has nothing to show',
+  },
+  'post /api/month-close/{month}/invoices': {
+    status: 409,
+    why: 'November is not closed in the seeded network, and only a closed month is invoiced',
   },
   'post /api/month-close/{month}/reopen': {
     status: 409,
@@ -115,7 +112,12 @@ export interface Input {
 const SEPTEMBER = { from: '2026-09-01', to: '2026-09-30' };
 
 /** A request the route takes for the caller's own object: its example, with ids that exist. */
-export function inputFor(spec: RouteSpec, world: World, caller: Caller, ref: Ref | undefined): Input {
+export function inputFor(
+  spec: RouteSpec,
+  world: World,
+  caller: Caller,
+  ref: Ref | undefined,
+): Input {
   const binding = BINDINGS[keyOf(spec)];
   const params: Record<string, string> = { ...(spec.example?.params ?? {}) };
   let query: Record<string, string> = { ...(spec.example?.query ?? {}) };
@@ -167,8 +169,11 @@ function bodyFor(spec: RouteSpec, world: World, caller: Caller, ref: Ref | undef
       const ret = world.returnJobs.find((j) => j.id === id);
       return { originalJobId: ret?.originalJobId ?? id, symptom: 'Drag slips again' };
     }
-    case 'post /api/jobs/{id}/transitions':
-      return { to: 'on_bench' };
+    case 'post /api/jobs/{id}/transitions': {
+      // The job's first allowed move: on the bench from checked in, waiting for parts from there.
+      const state = world.openJobs.find((j) => j.id === id)?.state ?? 'checked_in';
+      return { to: NEXT_STATES[state][0] };
+    }
     case 'post /api/reminders/send':
       return { weeks: 4 };
     case 'put /api/settings/comebacks': {

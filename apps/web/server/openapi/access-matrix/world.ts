@@ -7,6 +7,7 @@ import {
   reminderBatches,
   users,
 } from '@reelwright/db/schema';
+import type { JobState } from '~/lib/labels';
 import { DEFAULT_SEED_NOW, DEMO_ACCOUNTS, seedDemo } from '@reelwright/db/seed';
 import { addDemoAuditHistory } from '~/server/audits/demo-history';
 import { planRound } from '~/server/audits/plan';
@@ -33,10 +34,10 @@ export interface World {
   callers: Caller[];
   shops: { id: number; regionId: number }[];
   regionIds: number[];
-  /** Per shop: its first checked-in job (with a part line and a photo added) and a technician. */
-  openJobs: { id: number; shopId: number; partId: number; photoId: number }[];
+  /** Per shop: a job on the bench side (with a part line and a photo added). */
+  openJobs: { id: number; shopId: number; state: JobState; partId: number; photoId: number }[];
   technicians: { id: number; shopId: number }[];
-  /** A checked-in job whose reel was collected from an earlier job before it came in. */
+  /** An open job whose reel was collected from an earlier job before it came in. */
   returnJobs: { id: number; shopId: number; originalJobId: number }[];
   rounds: {
     id: number;
@@ -67,7 +68,7 @@ const SHORT_NAMES: Record<string, string> = {
 };
 
 async function rows<T>(query: ReturnType<typeof sql>): Promise<T[]> {
-  return (await testState.handle!.db.execute<T & Record<string, unknown>>(query)).rows;
+  return (await testState.handle!.db.execute(query)).rows as T[];
 }
 
 /** Seeds the open test database (testState.handle) and reads back what the matrix needs. */
@@ -84,7 +85,10 @@ export async function buildWorld(): Promise<World> {
   };
   const callers: Caller[] = [
     { name: 'signed out', principal: null },
-    ...DEMO_ACCOUNTS.map((a) => ({ name: SHORT_NAMES[a.email] ?? a.email, principal: principal(a.email) })),
+    ...DEMO_ACCOUNTS.map((a) => ({
+      name: SHORT_NAMES[a.email] ?? a.email,
+      principal: principal(a.email),
+    })),
   ];
   const auditors = people.filter((p) => p.role === 'auditor');
   const [auditor, secondAuditor] = auditors;
@@ -108,9 +112,12 @@ export async function buildWorld(): Promise<World> {
     .set({ auditorId: secondAuditor!.id })
     .where(eq(auditRounds.shopId, shops.at(-1)!.id));
 
-  const firstOpen = await rows<{ id: number; shopId: number }>(sql`
-    select distinct on (shop_id) id, shop_id as "shopId" from jobs
-    where state = 'checked_in' order by shop_id, id`);
+  // Not every shop has a job just checked in (Fennel Cove's season is over): the earliest open
+  // state wins, then the lowest id.
+  const firstOpen = await rows<{ id: number; shopId: number; state: JobState }>(sql`
+    select distinct on (shop_id) id, shop_id as "shopId", state from jobs
+    where state in ('checked_in', 'on_bench', 'waiting_parts', 'ready')
+    order by shop_id, state, id`);
   const openJobs: World['openJobs'] = [];
   for (const job of firstOpen) {
     const [part] = await db
@@ -153,7 +160,12 @@ export async function buildWorld(): Promise<World> {
   for (const shop of shops) {
     const [action] = await db
       .insert(correctiveActions)
-      .values({ shopId: shop.id, source: 'other', title: 'Regrease drag stacks', dueOn: '2026-12-20' })
+      .values({
+        shopId: shop.id,
+        source: 'other',
+        title: 'Regrease drag stacks',
+        dueOn: '2026-12-20',
+      })
       .returning({ id: correctiveActions.id });
     actions.push({ id: action!.id, shopId: shop.id });
     const [batch] = await db
@@ -174,7 +186,7 @@ export async function buildWorld(): Promise<World> {
     returnJobs: await rows(sql`
       select distinct on (j.shop_id) j.id, j.shop_id as "shopId", o.id as "originalJobId"
       from jobs j join jobs o on o.reel_id = j.reel_id and o.collected_at < j.checked_in_at
-      where j.state = 'checked_in' and not exists (select 1 from comebacks c where c.job_id = j.id)
+      where j.state in ('checked_in', 'on_bench', 'waiting_parts', 'ready') and not exists (select 1 from comebacks c where c.job_id = j.id)
       order by j.shop_id, j.id, o.collected_at desc`),
     rounds,
     // A comeback is read from its original shop and the shop the reel came back to: only one
