@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
-# npm test: lint, typecheck, unit tests, the database tests again on a throwaway PostgreSQL 15
-# server, then the Playwright end-to-end tests against `next start`. Installs what is missing.
+# npm test: lint, typecheck, unit tests, the database tests and the web access matrix again on a
+# throwaway PostgreSQL 15 server, then the Playwright end-to-end tests against `next start`. Installs what is missing.
 set -euo pipefail
 source "$(dirname "$0")/../apps/web/scripts/bootstrap.sh"
 cd "$REELWRIGHT_ROOT"
@@ -76,9 +76,10 @@ pnpm typecheck
 step "unit tests (embedded PGlite)"
 pnpm test:unit
 
-step "database tests on a throwaway PostgreSQL server"
+step "database tests and the access matrix on a throwaway PostgreSQL server"
 start_postgres
 pnpm --filter @reelwright/db test
+pnpm --filter @reelwright/web exec vitest run server/openapi/access-matrix.test.ts
 stop_postgres
 pg_dir=""
 

@@ -74,13 +74,14 @@ export async function saveSample(
       .where(and(eq(auditRounds.id, roundId), eq(auditRounds.auditorId, principal.id)))
       .for('update');
     if (!round) throw notFound('audit round');
-    if (round.status === 'decided' || round.status === 'cancelled')
-      throw conflict(`Round #${round.id} is ${round.status}; its scores can no longer change.`);
     const [sample] = await tx
       .select()
       .from(auditSamples)
       .where(and(eq(auditSamples.roundId, roundId), eq(auditSamples.jobId, jobId)));
+    // A job that is not in the sample is 404 whatever the round's state, as in any other round.
     if (!sample) throw notFound('sampled job');
+    if (round.status === 'decided' || round.status === 'cancelled')
+      throw conflict(`Round #${round.id} is ${round.status}; its scores can no longer change.`);
 
     const items = await tx
       .select()

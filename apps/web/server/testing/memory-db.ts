@@ -1,4 +1,5 @@
 import { migrate, openDb, type DbHandle } from '@reelwright/db/client';
+import { freshDb, TARGET } from '@reelwright/db/test-databases';
 import type { Principal } from '../principal';
 
 // What the unit tests put in place of `~/server/db` and `~/server/session`: an in-memory PGlite
@@ -35,4 +36,18 @@ export async function openMemoryDb(): Promise<DbHandle> {
 export async function closeMemoryDb(): Promise<void> {
   await testState.handle?.close();
   testState.handle = null;
+}
+
+/** Which engine `openTargetDb` opens: PostgreSQL when TEST_DATABASE_URL is set, else PGlite. */
+export const TEST_TARGET = TARGET;
+
+/**
+ * The test target with every migration applied: in-memory PGlite, or a new database on the
+ * PostgreSQL server of TEST_DATABASE_URL (dropped again by closeMemoryDb).
+ */
+export async function openTargetDb(): Promise<DbHandle> {
+  const handle = await freshDb();
+  await migrate(handle.db, handle.driver);
+  testState.handle = handle;
+  return handle;
 }

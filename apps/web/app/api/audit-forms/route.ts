@@ -3,6 +3,7 @@ import { auditFormInput } from '~/lib/validators/audits';
 import { route } from '~/server/api';
 import { publishAuditForm } from '~/server/audits/forms';
 import { currentForm, formVersions } from '~/server/queries/audits';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route({ permission: 'audits:read' }, async () => ({
   current: await currentForm(),
@@ -14,3 +15,5 @@ export const POST = route(
   async ({ principal, body }) =>
     Response.json(await publishAuditForm(principal, body), { status: 201 }),
 );
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

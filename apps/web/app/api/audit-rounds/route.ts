@@ -4,6 +4,7 @@ import { route } from '~/server/api';
 import { deliverSoon } from '~/server/audits/deliver';
 import { planRound } from '~/server/audits/plan';
 import { listRounds } from '~/server/queries/audits';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'audits:read', query: roundListQuery },
@@ -21,3 +22,5 @@ export const POST = route(
     });
   },
 );
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

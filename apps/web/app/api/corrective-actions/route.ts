@@ -3,6 +3,7 @@ import { correctiveActionListQuery, correctiveActionPatchWithId } from '~/lib/va
 import { route } from '~/server/api';
 import { updateCorrectiveAction } from '~/server/audits/corrective-actions';
 import { listCorrectiveActions } from '~/server/queries/corrective-actions';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'corrective-actions:manage', query: correctiveActionListQuery },
@@ -18,3 +19,5 @@ export const PATCH = route(
     return updateCorrectiveAction(principal, id, patch);
   },
 );
+
+export const { DELETE, POST, PUT, OPTIONS } = otherMethods(['GET', 'PATCH']);

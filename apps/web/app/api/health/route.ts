@@ -1,6 +1,7 @@
 // GET /api/health – database driver and migrations applied; no sign-in needed
 import { appliedMigrationCount, journaledMigrationCount } from '@reelwright/db/client';
 import { database } from '~/server/db';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const dynamic = 'force-dynamic';
 
@@ -34,3 +35,5 @@ export async function GET() {
     );
   }
 }
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

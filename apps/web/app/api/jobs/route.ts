@@ -4,6 +4,7 @@ import { route } from '~/server/api';
 import { checkIn } from '~/server/bench/check-in';
 import { deliverPending } from '~/server/mail/outbox';
 import { getJobDetail, listJobs } from '~/server/queries/bench';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'jobs:read', query: jobListQuery },
@@ -22,3 +23,5 @@ export const POST = route(
     });
   },
 );
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

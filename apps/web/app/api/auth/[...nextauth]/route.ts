@@ -4,6 +4,7 @@ import type { NextRequest } from 'next/server';
 import { authOptions } from '~/server/auth';
 import { problemResponse } from '~/server/errors';
 import { appOrigins, assertSameOrigin } from '~/server/request-guards';
+import { otherMethods } from '~/server/method-not-allowed';
 
 const handler = NextAuth(authOptions);
 
@@ -20,3 +21,5 @@ async function POST(request: NextRequest, context: Context) {
 }
 
 export { handler as GET, POST };
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

@@ -5,6 +5,7 @@ import { route } from '~/server/api';
 import { deliverSoon } from '~/server/audits/deliver';
 import { updateComeback } from '~/server/comebacks/review';
 import { getComeback } from '~/server/queries/comebacks';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'comebacks:read', params: idParams },
@@ -20,3 +21,5 @@ export const PATCH = route(
     return comeback;
   },
 );
+
+export const { DELETE, POST, PUT, OPTIONS } = otherMethods(['GET', 'PATCH']);

@@ -4,6 +4,7 @@ import { idParams } from '~/lib/validators/common';
 import { route } from '~/server/api';
 import { updateCorrectiveAction } from '~/server/audits/corrective-actions';
 import { getCorrectiveAction } from '~/server/queries/corrective-actions';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'corrective-actions:manage', params: idParams },
@@ -14,3 +15,5 @@ export const PATCH = route(
   { permission: 'corrective-actions:manage', params: idParams, body: correctiveActionPatch },
   async ({ principal, params, body }) => updateCorrectiveAction(principal, params.id, body),
 );
+
+export const { DELETE, POST, PUT, OPTIONS } = otherMethods(['GET', 'PATCH']);

@@ -3,6 +3,7 @@ import { caughtMailQuery } from '~/lib/validators/mail';
 import { route } from '~/server/api';
 import { notFound } from '~/server/errors';
 import { catcherConfigured, caughtMessages, outboxSummary } from '~/server/mail/catcher';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const dynamic = 'force-dynamic';
 
@@ -14,3 +15,5 @@ export const GET = route(
     return { messages, outbox };
   },
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

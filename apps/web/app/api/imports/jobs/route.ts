@@ -7,6 +7,7 @@ import { recentImports } from '~/server/imports/history';
 import { runImport, type ImportProgress } from '~/server/imports/jobs';
 import { prepareImport } from '~/server/imports/prepare';
 import { readImportForm, tooLarge } from '~/server/imports/upload';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const dynamic = 'force-dynamic';
 // A 50,000-row file takes a while to store.
@@ -110,3 +111,5 @@ export const POST = route(postConfig, async ({ principal, request }) => {
     },
   });
 });
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

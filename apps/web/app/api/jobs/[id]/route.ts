@@ -4,6 +4,7 @@ import { jobPatch } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { patchJob } from '~/server/bench/jobs';
 import { getJobDetail } from '~/server/queries/bench';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'jobs:read', params: idParams },
@@ -17,3 +18,5 @@ export const PATCH = route(
     return getJobDetail(principal, params.id);
   },
 );
+
+export const { DELETE, POST, PUT, OPTIONS } = otherMethods(['GET', 'PATCH']);

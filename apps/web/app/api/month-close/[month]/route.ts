@@ -2,6 +2,7 @@
 import { monthExportParams } from '~/lib/validators/month-close';
 import { route } from '~/server/api';
 import { getMonthClose, monthCloseCsv } from '~/server/queries/month-close';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const dynamic = 'force-dynamic';
 
@@ -20,3 +21,5 @@ export const GET = route(
     });
   },
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

@@ -2,8 +2,11 @@
 import { networkTrendsQuery } from '~/lib/validators/network';
 import { route } from '~/server/api';
 import { networkTrends } from '~/server/queries/network';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'network:read', query: networkTrendsQuery },
   async ({ principal, query }) => networkTrends(principal, query),
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

@@ -3,6 +3,7 @@ import { batchesQuery } from '~/lib/validators/reminders';
 import { route } from '~/server/api';
 import { badRequest } from '~/server/errors';
 import { recentBatches } from '~/server/reminders/send';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'reminders:send', query: batchesQuery },
@@ -13,3 +14,5 @@ export const GET = route(
     return { batches: await recentBatches(principal, shopId) };
   },
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

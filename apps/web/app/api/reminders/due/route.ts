@@ -3,6 +3,7 @@ import { dueQuery } from '~/lib/validators/reminders';
 import { route } from '~/server/api';
 import { badRequest } from '~/server/errors';
 import { dueReminders } from '~/server/reminders/due';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'reminders:send', query: dueQuery },
@@ -13,3 +14,5 @@ export const GET = route(
     return dueReminders(principal, shopId, query.weeks);
   },
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

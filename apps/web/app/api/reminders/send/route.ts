@@ -6,6 +6,7 @@ import { route } from '~/server/api';
 import { badRequest } from '~/server/errors';
 import { deliverPending } from '~/server/mail/outbox';
 import { runBatch, startReminderBatch } from '~/server/reminders/send';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const POST = route(
   { permission: 'reminders:send', body: sendInput },
@@ -29,3 +30,5 @@ export const POST = route(
     );
   },
 );
+
+export const { DELETE, GET, PATCH, PUT, OPTIONS } = otherMethods(['POST']);

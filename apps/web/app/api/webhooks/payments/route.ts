@@ -4,6 +4,7 @@ import { env } from '~/env';
 import { db } from '~/server/db';
 import { problemResponse } from '~/server/errors';
 import { handlePaymentWebhook, readWebhookBody } from '~/server/payments/webhook';
+import { otherMethods } from '~/server/method-not-allowed';
 
 // No session here: the Stripe-Signature over the raw body is the caller's proof.
 export async function POST(request: NextRequest) {
@@ -20,3 +21,5 @@ export async function POST(request: NextRequest) {
     return problemResponse(error, request.nextUrl.pathname);
   }
 }
+
+export const { DELETE, GET, PATCH, PUT, OPTIONS } = otherMethods(['POST']);

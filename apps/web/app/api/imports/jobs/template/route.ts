@@ -1,6 +1,7 @@
 // GET /api/imports/jobs/template – a CSV template for the job import: the headings and two example rows
 import { importTemplateCsv } from '~/lib/import-template';
 import { route } from '~/server/api';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'jobs:import' },
@@ -12,3 +13,5 @@ export const GET = route(
       },
     }),
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

@@ -4,6 +4,7 @@ import { benchSessionInput } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { recordBenchTime } from '~/server/bench/work';
 import { getJobDetail } from '~/server/queries/bench';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const POST = route(
   { permission: 'jobs:write', params: idParams, body: benchSessionInput },
@@ -12,3 +13,5 @@ export const POST = route(
     return getJobDetail(principal, params.id);
   },
 );
+
+export const { DELETE, GET, PATCH, PUT, OPTIONS } = otherMethods(['POST']);

@@ -4,6 +4,7 @@ import { checklistInput } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { setChecklist } from '~/server/bench/work';
 import { getJobDetail } from '~/server/queries/bench';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const PUT = route(
   { permission: 'jobs:write', params: idParams, body: checklistInput },
@@ -12,3 +13,5 @@ export const PUT = route(
     return getJobDetail(principal, params.id);
   },
 );
+
+export const { DELETE, GET, PATCH, POST, OPTIONS } = otherMethods(['PUT']);

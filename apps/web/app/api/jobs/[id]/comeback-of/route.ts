@@ -5,6 +5,7 @@ import { route } from '~/server/api';
 import { linkComeback } from '~/server/comebacks/detect';
 import { deliverPending } from '~/server/mail/outbox';
 import { jobComeback } from '~/server/queries/comebacks';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'jobs:read', params: idParams },
@@ -23,3 +24,5 @@ export const POST = route(
     );
   },
 );
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

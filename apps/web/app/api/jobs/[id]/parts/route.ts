@@ -4,6 +4,7 @@ import { partInput } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { addPart } from '~/server/bench/work';
 import { getJobDetail } from '~/server/queries/bench';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const POST = route(
   { permission: 'jobs:write', params: idParams, body: partInput },
@@ -12,3 +13,5 @@ export const POST = route(
     return Response.json(await getJobDetail(principal, params.id), { status: 201 });
   },
 );
+
+export const { DELETE, GET, PATCH, PUT, OPTIONS } = otherMethods(['POST']);

@@ -9,6 +9,7 @@ import { idParams } from '~/lib/validators/common';
 import { route } from '~/server/api';
 import { badRequest, fieldErrorsOf } from '~/server/errors';
 import { confirmPhotoUpload, listPhotos, startPhotoUpload } from '~/server/photos/service';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const dynamic = 'force-dynamic';
 
@@ -39,3 +40,5 @@ export const POST = route(
     });
   },
 );
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

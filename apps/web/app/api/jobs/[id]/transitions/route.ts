@@ -5,6 +5,7 @@ import { route } from '~/server/api';
 import { transitionJob } from '~/server/bench/jobs';
 import { deliverPending } from '~/server/mail/outbox';
 import { getJobDetail } from '~/server/queries/bench';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const POST = route(
   { permission: 'jobs:write', params: idParams, body: transitionInput },
@@ -15,3 +16,5 @@ export const POST = route(
     return getJobDetail(principal, params.id);
   },
 );
+
+export const { DELETE, GET, PATCH, PUT, OPTIONS } = otherMethods(['POST']);

@@ -3,6 +3,7 @@ import { monthParams } from '~/lib/validators/month-close';
 import { route } from '~/server/api';
 import { closeMonth } from '~/server/month-close/close';
 import { getMonthClose } from '~/server/queries/month-close';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const POST = route(
   { permission: 'month-close:manage', params: monthParams },
@@ -11,3 +12,5 @@ export const POST = route(
     return Response.json(await getMonthClose(principal, params.month), { status: 201 });
   },
 );
+
+export const { DELETE, GET, PATCH, PUT, OPTIONS } = otherMethods(['POST']);

@@ -3,8 +3,11 @@ import { idParams } from '~/lib/validators/common';
 import { periodQuery } from '~/lib/validators/network';
 import { route } from '~/server/api';
 import { shopMetrics } from '~/server/queries/network';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'shops:read', params: idParams, query: periodQuery },
   async ({ principal, params, query }) => shopMetrics(principal, params.id, query),
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);

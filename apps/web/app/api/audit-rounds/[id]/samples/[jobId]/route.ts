@@ -4,6 +4,7 @@ import { route } from '~/server/api';
 import { deliverSoon } from '~/server/audits/deliver';
 import { saveSample } from '~/server/audits/score';
 import { getSample } from '~/server/queries/audits';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const GET = route(
   { permission: 'audits:read', params: roundSampleParams },
@@ -18,3 +19,5 @@ export const PUT = route(
     return saved;
   },
 );
+
+export const { DELETE, PATCH, POST, OPTIONS } = otherMethods(['GET', 'PUT']);

@@ -3,6 +3,7 @@ import { partParams } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { deletePart } from '~/server/bench/work';
 import { getJobDetail } from '~/server/queries/bench';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const DELETE = route(
   { permission: 'jobs:write', params: partParams },
@@ -11,3 +12,5 @@ export const DELETE = route(
     return getJobDetail(principal, params.id);
   },
 );
+
+export const { GET, PATCH, POST, PUT, OPTIONS } = otherMethods(['DELETE']);

@@ -3,6 +3,7 @@ import { samplePhotoParams } from '~/lib/validators/audits';
 import { route } from '~/server/api';
 import { photoResponse } from '~/server/photos/service';
 import { requireSampledJob } from '~/server/queries/audits';
+import { otherMethods } from '~/server/method-not-allowed';
 
 export const dynamic = 'force-dynamic';
 
@@ -13,3 +14,5 @@ export const GET = route(
     return photoResponse(params.jobId, params.photoId);
   },
 );
+
+export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);
