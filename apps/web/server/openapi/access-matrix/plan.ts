@@ -91,6 +91,10 @@ export const NOT_IN_MATRIX: Record<string, string> = {
   'post /api/auth/{nextauth}': 'next-auth’s own handler, public; sign-in is tested end to end',
   'post /api/webhooks/payments':
     'public and signed: who calls it is the signature, which its own tests check',
+  'get /api/unsubscribe/{token}':
+    'public: the token in the link is the proof; its own tests send good, used and unknown tokens',
+  'post /api/unsubscribe/{token}':
+    'public: the token in the link is the proof; its own tests send good, used and unknown tokens',
 };
 
 /** The status the rules give: 401 signed out, 403 without the permission, 404 out of scope. */

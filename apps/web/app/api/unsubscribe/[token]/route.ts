@@ -7,6 +7,7 @@ import {
   appOrigins,
   readBodyText,
 } from '~/server/request-guards';
+import { otherMethods } from '~/server/method-not-allowed';
 import { unsubscribe } from '~/server/reminders/unsubscribe';
 
 export const dynamic = 'force-dynamic';
@@ -50,3 +51,5 @@ export async function GET(request: NextRequest, context: Context) {
   const { token } = await context.params;
   return Response.redirect(new URL(`/unsubscribe/${encodeURIComponent(token)}`, request.url), 303);
 }
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);
