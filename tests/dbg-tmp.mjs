@@ -1,0 +1,15 @@
+import { chromium } from '@playwright/test';
+import fs from 'node:fs';
+const base='http://127.0.0.1:3190';
+const b = await chromium.launch({ executablePath: '/usr/bin/chromium' });
+const c = await b.newContext({viewport:{width:1366,height:900}}); const p = await c.newPage();
+await p.goto(base+'/sign-in'); await p.getByLabel('E-mail').fill(process.argv[2]); await p.getByLabel('Password').fill('reelwright-demo');
+await p.getByRole('button',{name:'Sign in'}).click(); await p.waitForURL(u=>!u.pathname.startsWith('/sign-in'));
+await c.close();
+const st = await (async()=>{ const c2 = await b.newContext(); const p = await c2.newPage(); await p.goto(base+'/sign-in'); await p.getByLabel('E-mail').fill(process.argv[2]); await p.getByLabel('Password').fill('reelwright-demo'); await p.getByRole('button',{name:'Sign in'}).click(); await p.waitForURL(u=>!u.pathname.startsWith('/sign-in')); const s = await c2.storageState(); await c2.close(); return s; })();
+const c3 = await b.newContext({storageState: st, viewport:{width:1366,height:900}}); const p2 = await c3.newPage();
+const out=[];
+p2.on('response', async r => { if (r.request().resourceType()==='script') { const s = await r.request().sizes(); const f=r.url().split('/').pop(); const path='/work/main/apps/web/.next/static/chunks/'+f; let tags=''; if (fs.existsSync(path)) { const t=fs.readFileSync(path,'utf8'); for (const k of ['zod','tanstack','next-auth','tremor','recharts','date-fns','react-dom','@date-fns/tz','papaparse','react-hook-form','useQuery','signOut','ZodError']) if (t.includes(k)) tags+=k+' '; } out.push(`${s.responseBodySize} ${f} ${tags}`); } });
+await p2.goto(base+process.argv[3]); await p2.waitForLoadState('networkidle');
+console.log(out.join('\n'));
+await b.close();
