@@ -1,10 +1,6 @@
-export const JOB_STATES = [
-  'checked_in',
-  'on_bench',
-  'waiting_parts',
-  'ready',
-  'collected',
-] as const;
+import { JOB_STATES } from '@reelwright/db/values';
+
+export { JOB_STATES };
 export type JobState = (typeof JOB_STATES)[number];
 
 export const JOB_STATE_LABELS: Record<JobState, string> = {

@@ -1,5 +1,8 @@
 // Role → permission table: the single source of truth for what each role may do.
-export const ROLES = ['owner', 'regional_manager', 'shop_lead', 'technician', 'auditor'] as const;
+import { USER_ROLES } from '@reelwright/db/values';
+
+/** The roles, as the database's `user_role` enum has them. */
+export const ROLES = USER_ROLES;
 export type Role = (typeof ROLES)[number];
 
 export const PERMISSIONS = [

@@ -11,39 +11,20 @@ import {
   wholeNumber,
 } from './common';
 
-export const SERVICE_TYPES = ['tune_up', 'overhaul', 'repair', 'parts_install'] as const;
-export type ServiceType = (typeof SERVICE_TYPES)[number];
-export const REEL_KINDS = [
-  'spinning',
-  'baitcasting',
-  'conventional',
-  'lever_drag',
-  'fly',
-  'spincast',
-] as const;
-export type ReelKind = (typeof REEL_KINDS)[number];
+import { PAGE_SIZES, REEL_KINDS, SERVICE_TYPES, SORTS } from '../jobs';
 
-/** The only moves a job may make; anything else is refused with 409. */
-export const NEXT_STATES: Record<JobState, readonly JobState[]> = {
-  checked_in: ['on_bench'],
-  on_bench: ['waiting_parts', 'ready'],
-  waiting_parts: ['on_bench'],
-  ready: ['collected'],
-  collected: [],
-};
-
-export const OPEN_STATES: readonly JobState[] = [
-  'checked_in',
-  'on_bench',
-  'waiting_parts',
-  'ready',
-];
-
-export const canMove = (from: JobState, to: JobState) => NEXT_STATES[from].includes(to);
-
-const SORTS = ['checkedInAt', 'promisedAt', 'stateChangedAt', 'customer', 'id'] as const;
-export type JobSort = (typeof SORTS)[number];
-export const PAGE_SIZES = [25, 50, 100] as const;
+export {
+  NEXT_STATES,
+  OPEN_STATES,
+  canMove,
+  PAGE_SIZES,
+  parseMoney,
+  REEL_KINDS,
+  SERVICE_TYPES,
+  type JobSort,
+  type ReelKind,
+  type ServiceType,
+} from '../jobs';
 
 /** `GET /api/jobs` query; the bench list keeps the same keys in its URL. */
 export const jobListQuery = z
@@ -177,10 +158,3 @@ export const checklistInput = z.strictObject({
   stepIds: z.array(idNumber).max(200),
 });
 export type ChecklistInput = z.infer<typeof checklistInput>;
-
-/** "12.50" or "12" → 1250 cents; undefined when it is not a money amount. */
-export function parseMoney(text: string): number | undefined {
-  const m = /^\s*\$?\s*(\d{1,7})(?:\.(\d{1,2}))?\s*$/.exec(text);
-  if (!m) return undefined;
-  return Number(m[1]) * 100 + Number((m[2] ?? '0').padEnd(2, '0'));
-}

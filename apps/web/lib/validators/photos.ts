@@ -1,7 +1,8 @@
+import { PHOTO_STAGES } from '@reelwright/db/values';
 import { z } from 'zod';
 import { idNumber, idParam, text } from './common';
 
-export const PHOTO_STAGES = ['check_in', 'teardown', 'reassembly'] as const;
+export { PHOTO_STAGES };
 export type PhotoStage = (typeof PHOTO_STAGES)[number];
 
 export const PHOTO_STAGE_LABELS: Record<PhotoStage, string> = {

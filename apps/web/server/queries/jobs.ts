@@ -1,11 +1,11 @@
 import { and, asc, eq, inArray, sql } from '@reelwright/db';
 import { customers, jobs, reels, users } from '@reelwright/db/schema';
 import type { JobState } from '~/lib/labels';
+import { OPEN_STATES } from '~/lib/jobs';
 import { db } from '../db';
 import type { Principal } from '../principal';
 import { getShop } from './shops';
 
-const OPEN_STATES: JobState[] = ['checked_in', 'on_bench', 'waiting_parts', 'ready'];
 const BENCH_STATES: JobState[] = ['checked_in', 'on_bench', 'waiting_parts'];
 
 export interface OpenJobRow {
@@ -50,7 +50,7 @@ export async function oldestOpenJobs(
     .where(
       and(
         eq(jobs.shopId, shopId),
-        inArray(jobs.state, options.benchOnly ? BENCH_STATES : OPEN_STATES),
+        inArray(jobs.state, options.benchOnly ? BENCH_STATES : [...OPEN_STATES]),
         options.technicianId === undefined
           ? undefined
           : eq(jobs.technicianId, options.technicianId),

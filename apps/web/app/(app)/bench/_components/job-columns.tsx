@@ -4,7 +4,7 @@ import { StateBadge } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
 import { SERVICE_LABELS } from '~/lib/labels';
 import type { JobRowJson } from '~/lib/queries/jobs';
-import type { JobSort } from '~/lib/validators/jobs';
+import type { JobSort } from '~/lib/jobs';
 import { formatCents } from './format';
 
 /** Columns that sort, and what each asks the server for. "Days in state" sorts by the date it counts from. */

@@ -1,7 +1,7 @@
 'use client';
 
 import { JOB_STATE_LABELS, JOB_STATES, SERVICE_LABELS, type JobState } from '~/lib/labels';
-import { SERVICE_TYPES } from '~/lib/validators/jobs';
+import { SERVICE_TYPES } from '~/lib/jobs';
 
 const fieldClass =
   'mt-1 block min-h-12 w-full rounded-md border border-slate-400 bg-white px-3 text-base text-slate-900';

@@ -9,7 +9,7 @@ import { Empty } from '~/components/ui';
 import { formatCount } from '~/lib/format';
 import { JOB_STATES, type JobState } from '~/lib/labels';
 import { jobsPageQuery, listParams } from '~/lib/queries/jobs';
-import type { JobSort } from '~/lib/validators/jobs';
+import type { JobSort } from '~/lib/jobs';
 import { jobColumns, SORTABLE } from './job-columns';
 import { JobFilters } from './job-filters';
 import { JobPager } from './job-pager';

@@ -1,7 +1,7 @@
 'use client';
 
 import { formatCount } from '~/lib/format';
-import { PAGE_SIZES } from '~/lib/validators/jobs';
+import { PAGE_SIZES } from '~/lib/jobs';
 
 const pageButton =
   'inline-flex min-h-12 items-center rounded-md border border-slate-400 bg-white px-4 font-medium hover:bg-sand-100 disabled:opacity-50';

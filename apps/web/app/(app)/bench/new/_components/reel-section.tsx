@@ -1,7 +1,7 @@
 'use client';
 
 import { REEL_KIND_LABELS } from '~/lib/labels';
-import { REEL_KINDS } from '~/lib/validators/jobs';
+import { REEL_KINDS } from '~/lib/jobs';
 import { formatCivilDate, USE_LABELS, WATER_LABELS } from '../../_components/format';
 import {
   Choice,

@@ -1,7 +1,7 @@
 'use client';
 
 import { SERVICE_LABELS } from '~/lib/labels';
-import { SERVICE_TYPES } from '~/lib/validators/jobs';
+import { SERVICE_TYPES } from '~/lib/jobs';
 import {
   Choice,
   ChoiceFieldset,

@@ -3,7 +3,7 @@
 import { useState } from 'react';
 import { Panel } from '~/components/ui';
 import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
-import { parseMoney } from '~/lib/validators/jobs';
+import { parseMoney } from '~/lib/jobs';
 import { formatCents, formatMinutes } from '../../../_components/format';
 import { ErrorNote } from './error-note';
 import { useJobMutation } from './use-job-mutation';
