@@ -191,4 +191,3 @@ export function assembleFigures(
   });
   return { figures, network: totals(figures, comebackInput) };
 }
-

@@ -15,7 +15,9 @@ function nextMonth(month: string): string {
 /** The whole months of a period, [first, end) as first days of months (as the comparison). */
 function wholeMonthsOf(period: PeriodQuery): { first: string; end: string } {
   const after = addDays(period.to, 1);
-  const first = period.from.endsWith('-01') ? period.from : `${nextMonth(period.from.slice(0, 7))}-01`;
+  const first = period.from.endsWith('-01')
+    ? period.from
+    : `${nextMonth(period.from.slice(0, 7))}-01`;
   const end = `${after.slice(0, 7)}-01`;
   return first < end ? { first, end } : { first: after, end: after };
 }

@@ -369,12 +369,14 @@ describe('network comparison – figures worked out by hand', () => {
   it('owner – an empty period gives zeros, no rates and no bands', async () => {
     const r = await networkComparison(who.owner, { from: '2020-01-01', to: '2020-01-31' }, ctx());
     expect(r.shops).toHaveLength(4);
-    expect(r.network.comebacks).toEqual({
+    expect(r.network.comebacks).toMatchObject({
       events: 0,
       trials: 0,
       collected: 0,
       censored: 0,
       rate: null,
+      comparison: 'binomial',
+      estimate: { probability: null, jobs: 0 },
     });
     expect(r.network.revenue.perBenchHourCents).toBeNull();
     for (const s of r.shops) {

@@ -76,7 +76,8 @@ export function loadReference(
   const value = followUpTables(conn, null, ref, asOf, settings).then((tables) => {
     const table = emptyTable(settings.warrantyDays);
     for (const t of tables.values()) addInto(table, t);
-    const jobs = table.censored.reduce((a, b) => a + b, 0) + table.events.reduce((a, b) => a + b, 0);
+    const jobs =
+      table.censored.reduce((a, b) => a + b, 0) + table.events.reduce((a, b) => a + b, 0);
     return { period: ref, jobs, reference: comebackReference(table, settings.warrantyDays) };
   });
   if (options.cache !== false) {

@@ -169,7 +169,12 @@ export interface NetworkTotals {
     comparison: ComebackComparison;
     estimate: ComebackEstimateFigures;
     /** O/E of these shops together (null for a final period). */
-    ratio: { observed: number; expected: number; ratio: number | null; interval: Interval | null } | null;
+    ratio: {
+      observed: number;
+      expected: number;
+      ratio: number | null;
+      interval: Interval | null;
+    } | null;
   };
   audits: { events: number; trials: number; rounds: number; rate: number | null };
   revenue: {
