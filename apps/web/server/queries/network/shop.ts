@@ -227,6 +227,7 @@ export async function shopMetrics(
   return {
     period: { ...period, asOf: asOf.toISOString() },
     settings: net.settings,
+    reference: net.reference,
     network: net.network,
     figures,
     histogram: turnaroundHistogram(values.customer, values.bench),

@@ -302,6 +302,7 @@ export interface OpenJob {
 export interface ShopMetricsResult {
   period: PeriodInfo;
   settings: NetworkComparisonResult['settings'];
+  reference: NetworkComparisonResult['reference'];
   network: NetworkTotals;
   figures: ShopFigures;
   histogram: { binMinutes: number; bins: HistogramBin[] };
