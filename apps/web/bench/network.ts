@@ -299,8 +299,10 @@ async function measure(label: string, handle: DbHandle) {
   )) as [Timing, Timing, Timing];
   // Open periods: the network reference curve (twelve months before) is kept for a while per
   // database, so a request normally finds it; timed also rebuilt on every run.
-  const open = (period: typeof PERIOD, referenceCache = true) => () =>
-    networkComparison(owner, period, { db, asOf: NOW, referenceCache });
+  const open =
+    (period: typeof PERIOD, referenceCache = true) =>
+    () =>
+      networkComparison(owner, period, { db, asOf: NOW, referenceCache });
   const [current, last, currentCold, lastCold] = (await timeInTurn(
     runs,
     [open(CURRENT_MONTH), open(LAST_MONTH), open(CURRENT_MONTH, false), open(LAST_MONTH, false)],

@@ -1,5 +1,6 @@
 import { asc, sql, type Db, type SQL } from '@reelwright/db';
 import { regions as regionsTable } from '@reelwright/db/schema';
+import type { SurvivalTable } from '@reelwright/metrics';
 import type { ComparisonQuery, PeriodQuery } from '~/lib/validators/network';
 import { addDays, shopSeverities } from '../../audits/sampling';
 import { notFound } from '../../errors';
@@ -14,7 +15,7 @@ import {
   type QueryContext,
 } from './context';
 import { assembleFigures, totals } from './assemble';
-import { followUpTables, periodIsFinal } from './follow-up';
+import { emptyTable, followUpTables, periodIsFinal } from './follow-up';
 import { loadReference } from './reference';
 import { summariseSortedRuns } from './turnarounds';
 import type { NetworkComparisonResult } from './types';
@@ -323,6 +324,22 @@ function regionsFor(
 }
 
 /**
+ * The follow-up tables of a final period without another read: every job was followed through
+ * the window or came back inside it, so Kaplan–Meier gives events / jobs and Greenwood's variance
+ * telescopes to the binomial one whatever the days of the events; the events are put on day 1.
+ */
+function finalTables(counts: ReadonlyMap<number, ShopCounts>, warrantyDays: number) {
+  const out = new Map<string, SurvivalTable>();
+  for (const c of counts.values()) {
+    const table = emptyTable(warrantyDays);
+    table.events[1]! += c.events;
+    table.censored[warrantyDays]! += c.collected - c.events;
+    out.set(String(c.shopId), table);
+  }
+  return out;
+}
+
+/**
  * Loads and computes every shop's figures; shared by the network view and the shop page. The
  * reads go out together (PostgreSQL serves them on separate connections): the aggregate and the
  * severities cover every shop of the network, as the shop list does.
@@ -340,7 +357,11 @@ export async function computeNetwork(
     loadShops(conn, principal),
     settingsRead.then((used) => aggregateShops(conn, null, period, asOf, used)),
     shopSeverities(conn, null),
-    settingsRead.then((used) => followUpTables(conn, null, period, asOf, used)),
+    settingsRead.then((used) =>
+      periodIsFinal(period, asOf, used.warrantyDays)
+        ? null
+        : followUpTables(conn, null, period, asOf, used),
+    ),
     // A final period keeps the binomial comparison: no reference needed.
     settingsRead.then((used) =>
       periodIsFinal(period, asOf, used.warrantyDays)
@@ -348,11 +369,12 @@ export async function computeNetwork(
         : loadReference(conn, period, asOf, used, { cache: options.referenceCache }),
     ),
   ]);
+  const final = periodIsFinal(period, asOf, settings.warrantyDays);
   const comebacks = {
-    tables,
+    tables: tables ?? finalTables(counts, settings.warrantyDays),
     options: {
       warrantyDays: settings.warrantyDays,
-      final: periodIsFinal(period, asOf, settings.warrantyDays),
+      final,
       reference: reference?.reference ?? null,
     },
   };

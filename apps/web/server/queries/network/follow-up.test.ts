@@ -304,6 +304,17 @@ describe(`comeback follow-up (${TARGET})`, () => {
         12,
       );
       expect(s.comebacks.rate).toBe(s.comebacks.events / s.comebacks.trials);
+      // The same estimate and interval as the engine's on each job's own follow-up.
+      const engine = comebackEstimate(
+        followUpTable(await rawRows(period, s.shop.id), {
+          asOf: new Date('2026-05-15T12:00:00Z'),
+          warrantyDays: W,
+        }),
+        { warrantyDays: W },
+      );
+      expect(s.comebacks.estimate.probability).toBeCloseTo(engine.probability!, 12);
+      expect(s.comebacks.estimate.interval!.lower).toBeCloseTo(engine.interval!.lower, 12);
+      expect(s.comebacks.estimate.interval!.upper).toBeCloseTo(engine.interval!.upper, 12);
     }
   });
 
