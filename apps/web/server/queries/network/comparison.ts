@@ -9,7 +9,6 @@ import {
   loadSettings,
   loadShops,
   resolveContext,
-  toRef,
   type NetworkSettingsUsed,
   type NetworkShop,
   type QueryContext,
