@@ -1,6 +1,6 @@
 'use client';
 
-import { funnelLimits, type FairnessBand } from '@reelwright/metrics';
+import { funnelLimits, ratioFunnelLimits, type FairnessBand } from '@reelwright/metrics';
 import {
   CartesianGrid,
   ComposedChart,
@@ -32,8 +32,18 @@ const BAND_STYLE: Record<
 };
 export const FUNNEL_COLOURS = { network: '#1f514a', limit95: '#b08330', limit998: '#853223' };
 
-/** Limit curves around the network rate at volumes spread over [lo, hi], by @reelwright/metrics. */
-export function funnelCurves(networkRate: number, lo: number, hi: number, steps = 60) {
+/**
+ * Limit curves at volumes spread over [lo, hi], by @reelwright/metrics: exact binomial limits
+ * around the network rate (volume = jobs), or, for a ratio, Spiegelhalter's Poisson limits
+ * around 1 (volume = expected comebacks, not necessarily whole).
+ */
+export function funnelCurves(
+  networkRate: number,
+  lo: number,
+  hi: number,
+  steps = 60,
+  kind: 'rate' | 'ratio' = 'rate',
+) {
   const out: {
     n: number;
     network: number;
@@ -45,14 +55,15 @@ export function funnelCurves(networkRate: number, lo: number, hi: number, steps 
   const seen = new Set<number>();
   for (let k = 0; k <= steps; k++) {
     // Spread on a square-root scale: the funnel changes fastest at small volumes.
-    const n = Math.max(
-      1,
-      Math.round((Math.sqrt(lo) + ((Math.sqrt(hi) - Math.sqrt(lo)) * k) / steps) ** 2),
-    );
+    const spread = (Math.sqrt(lo) + ((Math.sqrt(hi) - Math.sqrt(lo)) * k) / steps) ** 2;
+    const n =
+      kind === 'ratio' ? Math.max(0.5, Number(spread.toFixed(2))) : Math.max(1, Math.round(spread));
     if (seen.has(n)) continue;
     seen.add(n);
-    const l95 = funnelLimits(n, networkRate, 0.95);
-    const l998 = funnelLimits(n, networkRate, 0.998);
+    const limits = (coverage: number) =>
+      kind === 'ratio' ? ratioFunnelLimits(n, coverage)! : funnelLimits(n, networkRate, coverage);
+    const l95 = limits(0.95);
+    const l998 = limits(0.998);
     out.push({
       n,
       network: networkRate,
@@ -115,28 +126,36 @@ function placeLabels(points: FunnelPoint[], x: (n: number) => number, y: (r: num
 
 /**
  * Funnel plot: each shop's rate against its volume, with the network rate and the exact binomial
- * 95% and 99.8% limits as curves. Marks differ in shape as well as colour by band.
+ * 95% and 99.8% limits as curves; or (kind "ratio") each shop's O/E against its expected
+ * comebacks E, with 1 and the Poisson limits. Marks differ in shape as well as colour by band.
  */
 export function FunnelChart(props: {
   points: FunnelPoint[];
   networkRate: number;
   xLabel: string;
   height?: number;
+  kind?: 'rate' | 'ratio';
 }) {
+  const ratio = props.kind === 'ratio';
   const volumes = props.points.map((p) => p.trials);
   const xTicks = niceTicks(Math.max(...volumes) * 1.08, 6);
   const hi = xTicks.at(-1)!;
-  const lo = Math.max(2, Math.floor(Math.min(...volumes) * 0.5));
-  const curves = funnelCurves(props.networkRate, lo, hi);
-  const atLowest = funnelLimits(Math.min(...volumes), props.networkRate, 0.998).upper;
+  const lo = ratio
+    ? Math.max(0.5, Math.min(...volumes) * 0.5)
+    : Math.max(2, Math.floor(Math.min(...volumes) * 0.5));
+  const curves = funnelCurves(props.networkRate, lo, hi, 60, props.kind);
+  const atLowest = ratio
+    ? ratioFunnelLimits(Math.max(1, Math.min(...volumes)), 0.998)!.upper
+    : funnelLimits(Math.min(...volumes), props.networkRate, 0.998).upper;
+  const cap = ratio ? Infinity : 1;
   const yTicks = niceTicks(
     Math.min(
-      1,
+      cap,
       Math.max(...props.points.map((p) => p.rate), atLowest, props.networkRate * 2) * 1.05,
     ),
     5,
   );
-  const top = Math.min(1, yTicks.at(-1)!);
+  const top = Math.min(cap, yTicks.at(-1)!);
   const places = placeLabels(
     props.points,
     (n) => n / hi,
@@ -168,7 +187,9 @@ export function FunnelChart(props: {
             type="number"
             domain={[0, top]}
             ticks={yTicks}
-            tickFormatter={(x: number) => `${(x * 100).toFixed(digits)}%`}
+            tickFormatter={(x: number) =>
+              ratio ? `${x.toFixed(top < 3 ? 1 : 0)}×` : `${(x * 100).toFixed(digits)}%`
+            }
             tick={{ fill: '#475569', fontSize: 12 }}
             width={52}
             allowDataOverflow
@@ -181,7 +202,16 @@ export function FunnelChart(props: {
           <Line
             {...guideLine('lower95', '95% lower limit', FUNNEL_COLOURS.limit95, { dash: '5 4' })}
           />
-          <Line {...guideLine('network', 'Network rate', FUNNEL_COLOURS.network, { width: 2 })} />
+          <Line
+            {...guideLine(
+              'network',
+              ratio ? 'As expected (O/E = 1)' : 'Network rate',
+              FUNNEL_COLOURS.network,
+              {
+                width: 2,
+              },
+            )}
+          />
           {(Object.keys(BAND_STYLE) as FairnessBand[]).map((band) => (
             <Scatter
               key={band}

@@ -34,7 +34,7 @@ export async function closeMonth(
   const figures = await computeNetwork(
     conn,
     month,
-    await networkRules(conn, now),
+    await networkRules(conn, now, month),
     await auditsByShop(principal, month),
   );
   try {

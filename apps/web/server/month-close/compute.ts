@@ -36,6 +36,7 @@ import {
 } from './figures';
 import type { Principal } from '../principal';
 import { auditSummaryByShop } from '../queries/audits';
+import { loadReference } from '../queries/network/reference';
 import { monthDates } from './period';
 
 /** Shops per round trip: bounds memory, so 500 shops cost no more at a time than 25. */
@@ -45,15 +46,26 @@ export interface NetworkRules extends RateSettings {
   currency: string;
 }
 
-/** Warranty window, counted attributions and currency from the owner's settings. */
-export async function networkRules(conn: Db, asOf: Date): Promise<NetworkRules> {
+/**
+ * Warranty window, counted attributions and currency from the owner's settings; given a month,
+ * also the network's reference curve of the months before it (as the network view uses), so
+ * that the month's observed comebacks can be set against those expected.
+ */
+export async function networkRules(conn: Db, asOf: Date, month?: string): Promise<NetworkRules> {
   const [row] = await conn.select().from(networkSettings).where(eq(networkSettings.id, 1));
-  return {
+  const rules = {
     asOf,
     warrantyDays: row?.warrantyDays ?? 90,
     countedAttributions: row?.countedAttributions ?? ['workmanship', 'part_failure'],
     currency: row?.currency ?? 'USD',
   };
+  if (!month) return rules;
+  const { first, last } = monthDates(month);
+  const loaded = await loadReference(conn, { from: first, to: last }, asOf, {
+    ...rules,
+    referenceMonths: row?.comebackReferenceMonths ?? 12,
+  });
+  return { ...rules, reference: loaded.reference };
 }
 
 /** The shops a scope condition selects, region by region and by name (the export's order). */
@@ -289,7 +301,7 @@ export async function computeNetwork(
   audits: AuditsByShop,
 ): Promise<FrozenFigures> {
   const shopList = await shopsIn(conn, undefined);
-  const network = new TotalsAccumulator('All shops');
+  const network = new TotalsAccumulator('All shops', rules);
   const regionTotals = new Map<number, TotalsAccumulator>();
   const rows: ShopFigures[] = [];
   for await (const row of streamShopFigures(conn, shopList, month, rules, audits)) {
@@ -297,7 +309,10 @@ export async function computeNetwork(
     network.add(row);
     let acc = regionTotals.get(row.shop.regionId);
     if (!acc)
-      regionTotals.set(row.shop.regionId, (acc = new TotalsAccumulator(row.shop.regionName)));
+      regionTotals.set(
+        row.shop.regionId,
+        (acc = new TotalsAccumulator(row.shop.regionName, rules)),
+      );
     acc.add(row);
   }
   const pooled = await pooledTurnaround(

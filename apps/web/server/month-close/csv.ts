@@ -38,6 +38,9 @@ interface Column {
 }
 
 const shopOf = (row: CsvRow) => (row.kind === 'shop' ? row.figures.shop : null);
+const est = (row: CsvRow) => row.figures.comebackEstimate;
+// A month frozen before the estimate existed keeps its rate as it was computed then.
+const final = (row: CsvRow) => est(row)?.final ?? true;
 
 /** The documented column set, in order (README: "Month-close CSV"). */
 export const CSV_COLUMNS: readonly Column[] = [
@@ -91,11 +94,25 @@ export const CSV_COLUMNS: readonly Column[] = [
   { name: 'on_time_jobs', cell: (r) => num(int(r.figures.onTime.onTime)) },
   { name: 'promised_jobs', cell: (r) => num(int(r.figures.onTime.total)) },
   { name: 'on_time_share', cell: (r) => num(fixed(r.figures.onTime.share, 4)) },
-  { name: 'comebacks', cell: (r) => num(int(r.figures.comebacks.events)) },
-  { name: 'comeback_trials', cell: (r) => num(int(r.figures.comebacks.trials)) },
-  { name: 'comeback_rate', cell: (r) => num(fixed(r.figures.comebacks.rate, 4)) },
-  { name: 'comeback_rate_low_95', cell: (r) => num(fixed(r.figures.comebacks.lower, 4)) },
-  { name: 'comeback_rate_high_95', cell: (r) => num(fixed(r.figures.comebacks.upper, 4)) },
+  // The final rate: empty while any window of the month is open (the estimate below stands in).
+  { name: 'comebacks', cell: (r) => num(final(r) ? int(r.figures.comebacks.events) : null) },
+  { name: 'comeback_trials', cell: (r) => num(final(r) ? int(r.figures.comebacks.trials) : null) },
+  { name: 'comeback_rate', cell: (r) => num(final(r) ? fixed(r.figures.comebacks.rate, 4) : null) },
+  {
+    name: 'comeback_rate_low_95',
+    cell: (r) => num(final(r) ? fixed(r.figures.comebacks.lower, 4) : null),
+  },
+  {
+    name: 'comeback_rate_high_95',
+    cell: (r) => num(final(r) ? fixed(r.figures.comebacks.upper, 4) : null),
+  },
+  { name: 'comeback_estimate', cell: (r) => num(fixed(est(r)?.probability ?? null, 4)) },
+  { name: 'comeback_estimate_low_95', cell: (r) => num(fixed(est(r)?.lower ?? null, 4)) },
+  { name: 'comeback_estimate_high_95', cell: (r) => num(fixed(est(r)?.upper ?? null, 4)) },
+  { name: 'comebacks_observed', cell: (r) => num(est(r) ? int(est(r)!.observed) : null) },
+  { name: 'comebacks_expected', cell: (r) => num(fixed(est(r)?.expected ?? null, 2)) },
+  { name: 'comeback_ratio', cell: (r) => num(fixed(est(r)?.ratio ?? null, 3)) },
+  { name: 'jobs_still_followed', cell: (r) => num(est(r) ? int(est(r)!.stillFollowed) : null) },
   { name: 'audit_rounds', cell: (r) => num(int(r.figures.audits.rounds)) },
   { name: 'audit_rounds_rejected', cell: (r) => num(int(r.figures.audits.rejected)) },
   { name: 'audit_failures', cell: (r) => num(int(r.figures.audits.failures)) },

@@ -1,6 +1,11 @@
 import {
   billedRevenueCents,
+  comebackEstimate,
   comebackRate,
+  followUpTable,
+  mergeSurvivalTables,
+  type ComebackReference,
+  type SurvivalTable,
   onTimeShare,
   revenuePerBenchHour,
   royaltyCents,
@@ -40,6 +45,12 @@ export interface Figures {
   onTime: { onTime: number; total: number; share: number | null };
   /** Jobs collected in the month, their warranty window closed (or come back) by `asOf`. */
   comebacks: Rate;
+  /**
+   * The comeback estimate from each collected job's follow-up (Kaplan–Meier, or the network
+   * curve carried by O/E while no job has been followed through the window), with observed and
+   * expected comebacks against the network reference. Absent from months frozen before it.
+   */
+  comebackEstimate?: MonthEstimate;
   /** Audit rounds decided in the month. */
   audits: { rounds: number; rejected: number; failures: number };
   /** Corrective actions open at the end of the month. */
@@ -47,6 +58,21 @@ export interface Figures {
   /** Null on a totals row (each shop has its own rate). */
   royaltyRateBp: number | null;
   royaltyCents: number;
+}
+
+export interface MonthEstimate {
+  probability: number | null;
+  lower: number | null;
+  upper: number | null;
+  observed: number;
+  /** Null without a network reference. */
+  expected: number | null;
+  ratio: number | null;
+  stillFollowed: number;
+  /** Every window closed or ended by a comeback: the final-rate columns apply. */
+  final: boolean;
+  /** The follow-up table, so that totals can pool it. */
+  table: SurvivalTable;
 }
 
 export interface ShopRef {
@@ -99,6 +125,27 @@ export interface RateSettings {
   asOf: Date;
   warrantyDays: number;
   countedAttributions: readonly ComebackAttribution[];
+  /** The network curve for O/E (the months before); null or absent: no expected comebacks. */
+  reference?: ComebackReference | null;
+}
+
+/** The estimate of a follow-up table, against the reference when there is one. */
+export function monthEstimate(table: SurvivalTable, settings: RateSettings): MonthEstimate {
+  const e = comebackEstimate(table, {
+    warrantyDays: settings.warrantyDays,
+    reference: settings.reference ?? null,
+  });
+  return {
+    probability: e.probability,
+    lower: e.interval?.lower ?? null,
+    upper: e.interval?.upper ?? null,
+    observed: e.events,
+    expected: e.ratio?.expected ?? null,
+    ratio: e.ratio?.ratio ?? null,
+    stillFollowed: e.stillFollowed,
+    final: e.final,
+    table,
+  };
 }
 
 function summary(minutes: number[]): Turnaround {
@@ -152,6 +199,20 @@ export function shopFigures(input: {
     collected.map((j) => ({ collectedAt: j.collectedAt, comebacks: byJob.get(j.id) ?? [] })),
     input.settings,
   );
+  // Each collected job's first counted return, by the same rule as the rate above.
+  const counted = new Set<string>(input.settings.countedAttributions);
+  const table = followUpTable(
+    collected.map((j) => {
+      const times = (byJob.get(j.id) ?? [])
+        .filter((c) => counted.has(c.attribution))
+        .map((c) => c.reportedAt.getTime());
+      return {
+        collectedAt: j.collectedAt!,
+        comebackAt: times.length ? new Date(Math.min(...times)) : null,
+      };
+    }),
+    { asOf: input.settings.asOf, warrantyDays: input.settings.warrantyDays },
+  );
   const onTime = onTimeShare(ready);
   return {
     jobs: {
@@ -172,6 +233,7 @@ export function shopFigures(input: {
     ),
     onTime,
     comebacks: rate(comebacks.events, comebacks.trials),
+    comebackEstimate: monthEstimate(table, input.settings),
     audits: input.audits,
     openCorrectiveActions: input.openCorrectiveActions,
     royaltyRateBp: input.royaltyRateBp,
@@ -212,7 +274,13 @@ export class TotalsAccumulator {
     royaltyCents: 0,
   };
 
-  constructor(readonly label: string) {}
+  private readonly tables: SurvivalTable[] = [];
+  private estimated = true;
+
+  constructor(
+    readonly label: string,
+    private readonly settings?: RateSettings,
+  ) {}
 
   add(f: Figures): void {
     const s = this.sum;
@@ -234,6 +302,8 @@ export class TotalsAccumulator {
     s.failures += f.audits.failures;
     s.openCorrectiveActions += f.openCorrectiveActions;
     s.royaltyCents += f.royaltyCents;
+    if (f.comebackEstimate) this.tables.push(f.comebackEstimate.table);
+    else this.estimated = false;
   }
 
   finish(pooled: PooledTurnaround): TotalsFigures {
@@ -258,6 +328,9 @@ export class TotalsAccumulator {
         share: s.onTimeTotal ? s.onTime / s.onTimeTotal : null,
       },
       comebacks: rate(s.events, s.trials),
+      ...(this.settings && this.estimated
+        ? { comebackEstimate: monthEstimate(mergeSurvivalTables(this.tables), this.settings) }
+        : {}),
       audits: { rounds: s.rounds, rejected: s.rejected, failures: s.failures },
       openCorrectiveActions: s.openCorrectiveActions,
       royaltyRateBp: null,

@@ -47,6 +47,8 @@ function expectedRecord(
   row: MonthCloseReport['shops'][number] | TotalsFigures,
 ): Record<string, string> {
   const isShop = 'shop' in row;
+  const e = row.comebackEstimate;
+  const final = e?.final ?? true;
   return {
     row_type: isShop ? 'shop' : 'total',
     month: report.month,
@@ -80,11 +82,19 @@ function expectedRecord(
     on_time_jobs: String(row.onTime.onTime),
     promised_jobs: String(row.onTime.total),
     on_time_share: dec(row.onTime.share, 4),
-    comebacks: String(row.comebacks.events),
-    comeback_trials: String(row.comebacks.trials),
-    comeback_rate: dec(row.comebacks.rate, 4),
-    comeback_rate_low_95: dec(row.comebacks.lower, 4),
-    comeback_rate_high_95: dec(row.comebacks.upper, 4),
+    // The final-rate columns stay empty until every window of the month has closed.
+    comebacks: final ? String(row.comebacks.events) : '',
+    comeback_trials: final ? String(row.comebacks.trials) : '',
+    comeback_rate: final ? dec(row.comebacks.rate, 4) : '',
+    comeback_rate_low_95: final ? dec(row.comebacks.lower, 4) : '',
+    comeback_rate_high_95: final ? dec(row.comebacks.upper, 4) : '',
+    comeback_estimate: dec(e!.probability, 4),
+    comeback_estimate_low_95: dec(e!.lower, 4),
+    comeback_estimate_high_95: dec(e!.upper, 4),
+    comebacks_observed: String(e!.observed),
+    comebacks_expected: dec(e!.expected, 2),
+    comeback_ratio: dec(e!.ratio, 3),
+    jobs_still_followed: String(e!.stillFollowed),
     audit_rounds: String(row.audits.rounds),
     audit_rounds_rejected: String(row.audits.rejected),
     audit_failures: String(row.audits.failures),
@@ -180,6 +190,23 @@ describe('month close – CSV', () => {
     ]);
   });
 
+  it('owner – the CSV carries the comeback estimate, O, E and jobs still followed; final-rate cells wait', async () => {
+    const rows = parse((await csvOf(net.owner, MONTH, { now: NOW })).text).data;
+    const reef = rows.find((r) => r.shop === 'Reef Test Shop')!;
+    // Collected 18 November, 20-day window: still followed on 2 December, so no final rate yet.
+    expect(reef.jobs_still_followed).toBe('1');
+    expect(reef.comebacks_observed).toBe('0');
+    expect([reef.comebacks, reef.comeback_trials, reef.comeback_rate]).toEqual(['', '', '']);
+    // Kaplan–Meier with no event among the jobs followed: 0, its interval exact binomial.
+    expect(Number(reef.comeback_estimate)).toBe(0);
+    const dune = rows.find((r) => r.shop === 'Dune Test Shop')!;
+    // Every window closed: the estimate is the final rate, 1 of 3 (Kaplan & Meier 1958: with no
+    // censoring the product-limit estimate is the simple proportion).
+    expect(dune.jobs_still_followed).toBe('0');
+    expect(dune.comeback_estimate).toBe(dune.comeback_rate);
+    expect(dune.comeback_rate).toBe((1 / 3).toFixed(4));
+  });
+
   it('owner – a shop named "=SUM(A1)" comes out as text, negative amounts stay numbers', async () => {
     const { text } = await csvOf(net.owner, MONTH, { now: NOW });
     const rows = parse(text).data;
@@ -225,8 +252,8 @@ describe('month close – CSV', () => {
       'jobs_collected',
       'on_time_jobs',
       'promised_jobs',
-      'comebacks',
-      'comeback_trials',
+      'comebacks_observed',
+      'jobs_still_followed',
       'audit_rounds',
       'audit_rounds_rejected',
       'audit_failures',

@@ -20,6 +20,7 @@ import { csvStream, type CsvContext, type CsvRow } from '../month-close/csv';
 import {
   TotalsAccumulator,
   type Figures,
+  type RateSettings,
   type ShopFigures,
   type ShopRef,
   type TotalsFigures,
@@ -157,8 +158,9 @@ async function liveTotals(
   rows: Figures[],
   shopIds: number[],
   month: string,
+  rules?: RateSettings,
 ) {
-  const acc = new TotalsAccumulator(label);
+  const acc = new TotalsAccumulator(label, rules);
   for (const row of rows) acc.add(row);
   return acc.finish((await pooledTurnaround(conn, shopIds, month)).all);
 }
@@ -285,7 +287,7 @@ export async function getMonthClose(
     const frozen = close.figures;
     const inScope = new Set(ids);
     const frozenRows = frozen.shops.filter((r) => inScope.has(r.shop.id));
-    const rules = await networkRules(conn, new Date(frozen.asOf));
+    const rules = await networkRules(conn, new Date(frozen.asOf), month);
     const audits = await auditsByShop(principal, month);
     const live = await collect(
       streamShopFigures(
@@ -308,7 +310,7 @@ export async function getMonthClose(
       differences: differences(frozenRows, live),
     };
   }
-  const rules = await networkRules(conn, now);
+  const rules = await networkRules(conn, now, month);
   const rows = await collect(
     streamShopFigures(conn, scoped, month, rules, await auditsByShop(principal, month)),
   );
@@ -320,7 +322,7 @@ export async function getMonthClose(
     warrantyDays: rules.warrantyDays,
     countedAttributions: rules.countedAttributions,
     shops: rows.map(withInvoice),
-    totals: await liveTotals(conn, label, rows, ids, month),
+    totals: await liveTotals(conn, label, rows, ids, month, rules),
     differences: null,
   };
 }
@@ -382,8 +384,8 @@ export async function monthCloseCsv(
       })),
     };
   }
-  const rules = await networkRules(conn, now);
-  const acc = new TotalsAccumulator(label);
+  const rules = await networkRules(conn, now, month);
+  const acc = new TotalsAccumulator(label, rules);
   const ctx: CsvContext = {
     month,
     status: 'open',

@@ -17,6 +17,11 @@ export const networkSettings = pgTable(
       .array()
       .notNull()
       .default(['workmanship', 'part_failure']),
+    /**
+     * Months before a period whose jobs make the network's reference curve (the cumulative hazard
+     * of a counted comeback by days since collection) for comparing periods with windows open.
+     */
+    comebackReferenceMonths: integer('comeback_reference_months').notNull().default(12),
     reviewDeadlineDays: integer('review_deadline_days').notNull().default(7),
     defaultAql: numeric('default_aql', { precision: 7, scale: 3, mode: 'number' })
       .notNull()
@@ -33,6 +38,10 @@ export const networkSettings = pgTable(
   (t) => [
     check('network_settings_single_row', sql`${t.id} = 1`),
     check('network_settings_warranty_days_positive', sql`${t.warrantyDays} > 0`),
+    check(
+      'network_settings_reference_months_range',
+      sql`${t.comebackReferenceMonths} between 1 and 36`,
+    ),
     check('network_settings_pass_mark_range', sql`${t.auditPassMark} between 0 and 100`),
   ],
 );

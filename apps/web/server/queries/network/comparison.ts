@@ -1,12 +1,6 @@
 import { asc, sql, type Db, type SQL } from '@reelwright/db';
 import { regions as regionsTable } from '@reelwright/db/schema';
-import {
-  compareShops,
-  rateRealisation,
-  revenuePerBenchHour,
-  type ShopComparison,
-} from '@reelwright/metrics';
-import type { SeverityValue } from '~/lib/validators/audits';
+import type { SurvivalTable } from '@reelwright/metrics';
 import type { ComparisonQuery, PeriodQuery } from '~/lib/validators/network';
 import { addDays, shopSeverities } from '../../audits/sampling';
 import { notFound } from '../../errors';
@@ -15,13 +9,15 @@ import {
   loadSettings,
   loadShops,
   resolveContext,
-  toRef,
   type NetworkSettingsUsed,
   type NetworkShop,
   type QueryContext,
 } from './context';
+import { assembleFigures, totals } from './assemble';
+import { emptyTable, followUpTables, periodIsFinal } from './follow-up';
+import { loadReference } from './reference';
 import { summariseSortedRuns } from './turnarounds';
-import type { NetworkComparisonResult, NetworkTotals, RateFigures, ShopFigures } from './types';
+import type { NetworkComparisonResult } from './types';
 
 /** One shop's counts for a period, straight from the aggregate. */
 export interface ShopCounts {
@@ -306,173 +302,6 @@ export async function aggregateShops(
   return out;
 }
 
-const EMPTY: Omit<ShopCounts, 'shopId'> = {
-  jobsReady: 0,
-  customerN: 0,
-  customerTotal: 0,
-  customerMedian: null,
-  customerP90: null,
-  benchN: 0,
-  benchTotal: 0,
-  benchMedian: null,
-  benchP90: null,
-  waitingMinutes: 0,
-  promised: 0,
-  onTime: 0,
-  revenueCents: 0,
-  labourCents: 0,
-  benchMinutes: 0,
-  collected: 0,
-  trials: 0,
-  events: 0,
-  awaitingReview: 0,
-  auditRounds: 0,
-  auditScored: 0,
-  auditFailures: 0,
-  auditCritical: 0,
-  auditScoreSum: 0,
-  auditAccepted: 0,
-  auditRejected: 0,
-  actionsOpen: 0,
-  actionsOverdue: 0,
-};
-
-function rateFigures(c: ShopComparison, networkRate: number | null): RateFigures {
-  const side =
-    c.rate === null || networkRate === null
-      ? null
-      : c.rate > networkRate
-        ? 'above'
-        : c.rate < networkRate
-          ? 'below'
-          : 'equal';
-  return {
-    events: c.events,
-    trials: c.trials,
-    rate: c.rate,
-    interval: c.interval,
-    funnel95: c.funnel95,
-    funnel998: c.funnel998,
-    band: c.trials === 0 ? null : c.band,
-    side,
-  };
-}
-
-function totals(figures: readonly ShopFigures[]): NetworkTotals {
-  const sum = (pick: (f: ShopFigures) => number) => figures.reduce((t, f) => t + pick(f), 0);
-  const events = sum((f) => f.comebacks.events);
-  const trials = sum((f) => f.comebacks.trials);
-  const auditEvents = sum((f) => f.audits.events);
-  const auditTrials = sum((f) => f.audits.trials);
-  const revenueCents = sum((f) => f.revenue.revenueCents);
-  const benchMinutes = sum((f) => f.revenue.benchMinutes);
-  return {
-    shops: figures.length,
-    jobsReady: sum((f) => f.jobsReady),
-    comebacks: {
-      events,
-      trials,
-      collected: sum((f) => f.comebacks.collected),
-      censored: sum((f) => f.comebacks.censored),
-      rate: trials === 0 ? null : events / trials,
-    },
-    audits: {
-      events: auditEvents,
-      trials: auditTrials,
-      rounds: sum((f) => f.audits.rounds),
-      rate: auditTrials === 0 ? null : auditEvents / auditTrials,
-    },
-    revenue: {
-      revenueCents,
-      labourCents: sum((f) => f.revenue.labourCents),
-      benchMinutes,
-      perBenchHourCents: revenuePerBenchHour([{ revenueCents, benchMinutes }]),
-    },
-    correctiveActions: {
-      open: sum((f) => f.correctiveActions.open),
-      overdue: sum((f) => f.correctiveActions.overdue),
-    },
-  };
-}
-
-/**
- * Figures for every shop of the network from the aggregate, through @reelwright/metrics: fair
- * comparison of comeback and audit failure rates against the whole network's pooled rate, Wilson
- * intervals, funnel limits and bands, revenue per bench hour and rate realisation.
- */
-export function assembleFigures(
-  shops: readonly NetworkShop[],
-  counts: ReadonlyMap<number, ShopCounts>,
-  severities: ReadonlyMap<number, { severity: SeverityValue }> = new Map(),
-) {
-  const all = shops.map((shop) => ({ shop, c: { ...EMPTY, ...counts.get(shop.id) } }));
-  const comebacks = compareShops(
-    all.map(({ shop, c }) => ({ shopId: String(shop.id), events: c.events, trials: c.trials })),
-  );
-  const audits = compareShops(
-    all.map(({ shop, c }) => ({
-      shopId: String(shop.id),
-      events: c.auditFailures,
-      trials: c.auditScored,
-    })),
-  );
-  const figures = all.map(({ shop, c }, i): ShopFigures => {
-    const realisation = rateRealisation(
-      [{ labourCents: c.labourCents, benchMinutes: c.benchMinutes }],
-      shop.labourRateCents,
-    );
-    return {
-      shop: toRef(shop),
-      jobsReady: c.jobsReady,
-      customerTurnaround: {
-        count: c.customerN,
-        totalMinutes: c.customerTotal,
-        median: c.customerMedian,
-        p90: c.customerP90,
-      },
-      benchTurnaround: {
-        count: c.benchN,
-        totalMinutes: c.benchTotal,
-        median: c.benchMedian,
-        p90: c.benchP90,
-      },
-      waitingPartsMinutes: c.waitingMinutes,
-      onTime: {
-        onTime: c.onTime,
-        total: c.promised,
-        share: c.promised === 0 ? null : c.onTime / c.promised,
-      },
-      comebacks: {
-        ...rateFigures(comebacks.shops[i]!, comebacks.networkRate),
-        collected: c.collected,
-        censored: c.collected - c.trials,
-        awaitingReview: c.awaitingReview,
-      },
-      revenue: {
-        revenueCents: c.revenueCents,
-        labourCents: c.labourCents,
-        benchMinutes: c.benchMinutes,
-        perBenchHourCents: revenuePerBenchHour([
-          { revenueCents: c.revenueCents, benchMinutes: c.benchMinutes },
-        ]),
-        labourPerBenchHourCents: realisation.labourPerBenchHour,
-        realisation: realisation.realisation,
-      },
-      audits: {
-        ...rateFigures(audits.shops[i]!, audits.networkRate),
-        rounds: c.auditRounds,
-        criticalMisses: c.auditCritical,
-        averageScore: c.auditScored === 0 ? null : c.auditScoreSum / c.auditScored,
-        roundsAccepted: c.auditAccepted,
-        roundsRejected: c.auditRejected,
-        severity: severities.get(shop.id)?.severity ?? 'normal',
-      },
-      correctiveActions: { open: c.actionsOpen, overdue: c.actionsOverdue },
-    };
-  });
-  return { figures, network: totals(figures) };
-}
-
 /** Every region, by name. */
 function loadRegions(conn: Db) {
   return conn
@@ -494,6 +323,22 @@ function regionsFor(
 }
 
 /**
+ * The follow-up tables of a final period without another read: every job was followed through
+ * the window or came back inside it, so Kaplan–Meier gives events / jobs and Greenwood's variance
+ * telescopes to the binomial one whatever the days of the events; the events are put on day 1.
+ */
+function finalTables(counts: ReadonlyMap<number, ShopCounts>, warrantyDays: number) {
+  const out = new Map<string, SurvivalTable>();
+  for (const c of counts.values()) {
+    const table = emptyTable(warrantyDays);
+    table.events[1]! += c.events;
+    table.censored[warrantyDays]! += c.collected - c.events;
+    out.set(String(c.shopId), table);
+  }
+  return out;
+}
+
+/**
  * Loads and computes every shop's figures; shared by the network view and the shop page. The
  * reads go out together (PostgreSQL serves them on separate connections): the aggregate and the
  * severities cover every shop of the network, as the shop list does.
@@ -503,15 +348,49 @@ export async function computeNetwork(
   principal: Principal,
   period: PeriodQuery,
   asOf: Date,
+  options: { referenceCache?: boolean } = {},
 ) {
   const settingsRead = loadSettings(conn);
-  const [settings, shops, counts, severities] = await Promise.all([
+  const [settings, shops, counts, severities, tables, reference] = await Promise.all([
     settingsRead,
     loadShops(conn, principal),
     settingsRead.then((used) => aggregateShops(conn, null, period, asOf, used)),
     shopSeverities(conn, null),
+    settingsRead.then((used) =>
+      periodIsFinal(period, asOf, used.warrantyDays)
+        ? null
+        : followUpTables(conn, null, period, asOf, used),
+    ),
+    // A final period keeps the binomial comparison: no reference needed.
+    settingsRead.then((used) =>
+      periodIsFinal(period, asOf, used.warrantyDays)
+        ? null
+        : loadReference(conn, period, asOf, used, { cache: options.referenceCache }),
+    ),
   ]);
-  return { settings, shops, ...assembleFigures(shops, counts, severities) };
+  const final = periodIsFinal(period, asOf, settings.warrantyDays);
+  const comebacks = {
+    tables: tables ?? finalTables(counts, settings.warrantyDays),
+    options: {
+      warrantyDays: settings.warrantyDays,
+      final,
+      reference: reference?.reference ?? null,
+    },
+  };
+  return {
+    settings,
+    shops,
+    comebacks,
+    reference:
+      reference?.reference == null
+        ? null
+        : {
+            ...reference.period,
+            jobs: reference.jobs,
+            probability: reference.reference.probability,
+          },
+    ...assembleFigures(shops, counts, severities, comebacks),
+  };
 }
 
 /**
@@ -528,7 +407,7 @@ export async function networkComparison(
   const { conn, asOf } = await resolveContext(ctx);
   const period = { from: query.from, to: query.to };
   const [net, allRegions] = await Promise.all([
-    computeNetwork(conn, principal, period, asOf),
+    computeNetwork(conn, principal, period, asOf, { referenceCache: ctx.referenceCache }),
     loadRegions(conn),
   ]);
   const regions = regionsFor(allRegions, principal, net.shops);
@@ -543,10 +422,11 @@ export async function networkComparison(
   return {
     period: { ...period, asOf: asOf.toISOString() },
     settings: net.settings,
+    reference: net.reference,
     region,
     regions,
     network: net.network,
-    view: totals(shown),
+    view: totals(shown, net.comebacks),
     shops: shown,
   };
 }

@@ -17,6 +17,8 @@ import type { ShopRef } from './types';
 export interface QueryContext {
   db?: Db;
   asOf?: Date;
+  /** False to rebuild the network's reference curve rather than reuse a recent one (tests). */
+  referenceCache?: boolean;
 }
 
 export async function resolveContext(ctx: QueryContext = {}) {
@@ -26,14 +28,17 @@ export async function resolveContext(ctx: QueryContext = {}) {
 export interface NetworkSettingsUsed {
   warrantyDays: number;
   countedAttributions: ComebackAttribution[];
+  /** Months before a period whose jobs make the network's reference curve (default 12). */
+  referenceMonths: number;
 }
 
-/** The owner's warranty window and counted attributions; the schema defaults when unset. */
+/** The owner's warranty window, counted attributions and reference months; defaults when unset. */
 export async function loadSettings(conn: Db): Promise<NetworkSettingsUsed> {
   const [row] = await conn
     .select({
       warrantyDays: networkSettings.warrantyDays,
       countedAttributions: networkSettings.countedAttributions,
+      referenceMonths: networkSettings.comebackReferenceMonths,
     })
     .from(networkSettings)
     .where(eq(networkSettings.id, 1))
@@ -41,6 +46,7 @@ export async function loadSettings(conn: Db): Promise<NetworkSettingsUsed> {
   return {
     warrantyDays: row?.warrantyDays ?? 90,
     countedAttributions: row?.countedAttributions ?? [...DEFAULT_COUNTED_ATTRIBUTIONS],
+    referenceMonths: row?.referenceMonths ?? 12,
   };
 }
 

@@ -15,8 +15,10 @@ import {
   type NewJob,
 } from '@reelwright/db/schema';
 import {
+  comebackEstimate,
   compareShops,
   comebackRate,
+  followUpTable,
   onTimeShare,
   rateRealisation,
   revenuePerBenchHour,
@@ -369,12 +371,14 @@ describe('network comparison – figures worked out by hand', () => {
   it('owner – an empty period gives zeros, no rates and no bands', async () => {
     const r = await networkComparison(who.owner, { from: '2020-01-01', to: '2020-01-31' }, ctx());
     expect(r.shops).toHaveLength(4);
-    expect(r.network.comebacks).toEqual({
+    expect(r.network.comebacks).toMatchObject({
       events: 0,
       trials: 0,
       collected: 0,
       censored: 0,
       rate: null,
+      comparison: 'binomial',
+      estimate: { probability: null, jobs: 0 },
     });
     expect(r.network.revenue.perBenchHourCents).toBeNull();
     for (const s of r.shops) {
@@ -385,14 +389,25 @@ describe('network comparison – figures worked out by hand', () => {
     }
   });
 
-  it('owner – jobs still inside their warranty window are left out unless they came back', async () => {
+  it('owner – jobs still inside their warranty window are followed, not left out', async () => {
     const r = await networkComparison(who.owner, APRIL, {
       db: db(),
       asOf: at('2026-06-15T12:00:00Z'),
     });
     const a = byName(r, 'Alder Quay');
-    // Only the two confirmed returns inside the window count; the open one awaits review.
-    expect(a.comebacks).toMatchObject({ collected: 6, trials: 2, events: 1, censored: 4 });
+    // One counted return (workmanship, day 20); the open one awaits review. The other five jobs
+    // are still inside their window: followed, estimated, and said so.
+    expect(a.comebacks).toMatchObject({
+      collected: 6,
+      censored: 4,
+      comparison: 'ratio',
+      events: 1,
+      trials: 6,
+      estimate: { jobs: 6, events: 1, stillFollowed: 5, final: false },
+    });
+    // No job before April to build a network curve from: an estimate, but no band.
+    expect(r.reference).toBeNull();
+    expect(a.comebacks.band).toBeNull();
   });
 
   it('owner – audit samples and open corrective actions are counted once rows exist', async () => {
@@ -562,6 +577,31 @@ describe('network comparison – the API equals the metrics engine on the same r
             })),
           { asOf, warrantyDays: 90 },
         );
+        if (s.comebacks.comparison === 'ratio') {
+          // Windows open: the estimate from each job's follow-up, as the engine makes it.
+          const rows = collected.rows
+            .filter((x) => Number(x.shop_id) === s.shop.id)
+            .map((x) => {
+              const times = backs.rows
+                .filter(
+                  (b) =>
+                    Number(b.original_job_id) === Number(x.id) &&
+                    ['workmanship', 'part_failure'].includes(String(b.attribution)),
+                )
+                .map((b) => toDate(b.detected_at)!.getTime());
+              return {
+                collectedAt: toDate(x.collected_at)!,
+                comebackAt: times.length ? new Date(Math.min(...times)) : null,
+              };
+            });
+          const e = comebackEstimate(followUpTable(rows, { asOf, warrantyDays: 90 }), {
+            warrantyDays: 90,
+          });
+          expect(s.comebacks.estimate.probability, s.shop.name).toEqual(e.probability);
+          expect(s.comebacks.interval).toEqual(e.interval);
+          expect(s.comebacks.events).toBe(rate.events);
+          return null;
+        }
         expect({ events: s.comebacks.events, trials: s.comebacks.trials }).toEqual({
           events: rate.events,
           trials: rate.trials,
@@ -569,7 +609,8 @@ describe('network comparison – the API equals the metrics engine on the same r
         expect(s.comebacks.interval).toEqual(rate.interval);
         return { shopId: String(s.shop.id), events: rate.events, trials: rate.trials };
       });
-      const engine = compareShops(counts);
+      if (counts.includes(null)) return;
+      const engine = compareShops(counts as NonNullable<(typeof counts)[number]>[]);
       expect(r.network.comebacks.rate).toBe(engine.networkRate);
       for (const [i, s] of r.shops.entries()) {
         const e = engine.shops[i]!;

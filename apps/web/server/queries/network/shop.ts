@@ -206,7 +206,9 @@ export async function shopMetrics(
   ctx: QueryContext = {},
 ): Promise<ShopMetricsResult> {
   const { conn, asOf } = await resolveContext(ctx);
-  const net = await computeNetwork(conn, principal, period, asOf);
+  const net = await computeNetwork(conn, principal, period, asOf, {
+    referenceCache: ctx.referenceCache,
+  });
   const index = net.shops.findIndex((s) => s.id === shopId && s.visible);
   if (index < 0) throw notFound('shop');
   const figures = net.figures[index]!;
@@ -225,6 +227,7 @@ export async function shopMetrics(
   return {
     period: { ...period, asOf: asOf.toISOString() },
     settings: net.settings,
+    reference: net.reference,
     network: net.network,
     figures,
     histogram: turnaroundHistogram(values.customer, values.bench),

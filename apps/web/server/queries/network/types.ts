@@ -1,4 +1,10 @@
-import type { ComebackAttribution, FairnessBand, Interval, PChartRow } from '@reelwright/metrics';
+import type {
+  ComebackAttribution,
+  FairnessBand,
+  Interval,
+  PChartRow,
+  RatioNote,
+} from '@reelwright/metrics';
 import type { SeverityValue } from '~/lib/validators/audits';
 
 // Plain JSON shapes: the API returns them and the server pages hand them to client components.
@@ -51,13 +57,61 @@ export interface RateFigures {
   side: 'above' | 'below' | 'equal' | null;
 }
 
+/**
+ * The estimated probability of a counted comeback within the warranty window, from the follow-up
+ * of the period's collected jobs (Kaplan–Meier), or, when none has been followed through the
+ * window yet, the network's probability times the shop's standardized ratio.
+ */
+export interface ComebackEstimateFigures {
+  method: 'kaplan-meier' | 'network × ratio' | null;
+  probability: number | null;
+  /** 95%: log–log Kaplan–Meier interval, or the ratio's exact interval times the network's probability. */
+  interval: Interval | null;
+  /** Every job's window closed or ended by a comeback: the estimate is the final rate. */
+  final: boolean;
+  /** Jobs collected in the period by the as-of instant. */
+  jobs: number;
+  /** Counted comebacks so far. */
+  events: number;
+  /** Jobs still inside their window without a counted comeback. */
+  stillFollowed: number;
+  /** Jobs followed through the whole window (or back on its last day). */
+  followedThrough: number;
+}
+
+/** Observed against expected comebacks (O/E) on Spiegelhalter's Poisson funnel. */
+export interface RatioFigures {
+  observed: number;
+  /** Σ of the network reference's cumulative hazard at each job's own follow-up time. */
+  expected: number;
+  ratio: number | null;
+  /** Exact Poisson (Garwood) 95% interval of O, over E. */
+  interval: Interval | null;
+  funnel95: Interval | null;
+  funnel998: Interval | null;
+  band: FairnessBand;
+  side: 'high' | 'low' | null;
+  /** Why a ratio outside a funnel line is still in line, or cannot be judged. */
+  note: RatioNote | null;
+}
+
+/**
+ * Which comparison the bands come from: 'binomial' (final rates on the funnel around the network
+ * rate, every window closed) or 'ratio' (O/E on the Poisson funnel, windows still open).
+ */
+export type ComebackComparison = 'binomial' | 'ratio';
+
 export interface ComebackFigures extends RateFigures {
   /** Jobs collected in the period. */
   collected: number;
-  /** Collected jobs still inside their warranty window that have not come back (left out). */
+  /** Collected jobs still inside their warranty window that have not come back. */
   censored: number;
   /** Comebacks against jobs of the period still awaiting review (not counted yet). */
   awaitingReview: number;
+  comparison: ComebackComparison;
+  estimate: ComebackEstimateFigures;
+  /** O/E against the network reference; null for a final period (or with no reference). */
+  ratio: RatioFigures | null;
 }
 
 export interface AuditFigures extends RateFigures {
@@ -110,7 +164,17 @@ export interface NetworkTotals {
     trials: number;
     collected: number;
     censored: number;
+    /** The estimate's probability (the final rate once every window has closed). */
     rate: number | null;
+    comparison: ComebackComparison;
+    estimate: ComebackEstimateFigures;
+    /** O/E of these shops together (null for a final period). */
+    ratio: {
+      observed: number;
+      expected: number;
+      ratio: number | null;
+      interval: Interval | null;
+    } | null;
   };
   audits: { events: number; trials: number; rounds: number; rate: number | null };
   revenue: {
@@ -124,7 +188,16 @@ export interface NetworkTotals {
 
 export interface NetworkComparisonResult {
   period: PeriodInfo;
-  settings: { warrantyDays: number; countedAttributions: ComebackAttribution[] };
+  settings: {
+    warrantyDays: number;
+    countedAttributions: ComebackAttribution[];
+    referenceMonths: number;
+  };
+  /**
+   * The network curve O/E is measured against: every shop's jobs of the reference period (local
+   * dates), its W-day probability; null for a final period, or when none was followed through.
+   */
+  reference: { from: string; to: string; jobs: number; probability: number } | null;
   /** The region filter applied, if any. */
   region: { id: number; name: string } | null;
   /** Regions the caller may filter by. */
@@ -229,6 +302,7 @@ export interface OpenJob {
 export interface ShopMetricsResult {
   period: PeriodInfo;
   settings: NetworkComparisonResult['settings'];
+  reference: NetworkComparisonResult['reference'];
   network: NetworkTotals;
   figures: ShopFigures;
   histogram: { binMinutes: number; bins: HistogramBin[] };

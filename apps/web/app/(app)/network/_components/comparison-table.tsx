@@ -30,6 +30,7 @@ import {
 import {
   actionsText,
   auditText,
+  comebackBandText,
   comebackText,
   formatScore,
   jobsReadyText,
@@ -141,7 +142,7 @@ export function ComparisonTable(props: {
                 ? formatInterval(c.interval)
                 : `${formatCount(c.events)}/${formatCount(c.trials)}`}
             </span>
-            <Explain text={bandExplanation('comebacks', c, networkRate)} className="no-underline">
+            <Explain text={comebackBandText(c, networkRate)} className="no-underline">
               <BandBadge band={c.band} side={c.side} />
             </Explain>
           </div>
@@ -429,9 +430,14 @@ export function toCsv(
       'Comeback trials',
       'Comebacks counted',
       'Comeback rate (%)',
-      'Wilson 95% lower (%)',
-      'Wilson 95% upper (%)',
+      'Comeback rate 95% lower (%)',
+      'Comeback rate 95% upper (%)',
       'Comeback band',
+      'Comeback comparison',
+      'Comeback estimate method',
+      'Jobs still followed',
+      'Comebacks expected',
+      'Comebacks observed ÷ expected',
       'Billed revenue ($)',
       'Labour ($)',
       'Bench hours',
@@ -469,6 +475,11 @@ export function toCsv(
       pct(f.comebacks.interval?.lower),
       pct(f.comebacks.interval?.upper),
       f.comebacks.band ?? '',
+      f.comebacks.comparison === 'ratio' ? 'observed vs expected' : 'final rate',
+      f.comebacks.estimate.method ?? '',
+      f.comebacks.estimate.stillFollowed,
+      f.comebacks.ratio ? round(f.comebacks.ratio.expected, 2) : '',
+      f.comebacks.ratio?.ratio == null ? '' : round(f.comebacks.ratio.ratio, 3),
       (f.revenue.revenueCents / 100).toFixed(2),
       (f.revenue.labourCents / 100).toFixed(2),
       round(f.revenue.benchMinutes / 60, 2),

@@ -1,7 +1,19 @@
 import type { SeverityValue } from '~/lib/validators/audits';
 import type { TurnaroundUnit } from '~/lib/validators/network';
-import type { NetworkComparisonResult, ShopFigures } from '~/server/queries/network';
-import { formatCount, formatDuration, formatInterval, formatMoney, formatPercent } from './format';
+import type {
+  ComebackFigures,
+  NetworkComparisonResult,
+  ShopFigures,
+} from '~/server/queries/network';
+import {
+  BAND_LABELS,
+  bandExplanation,
+  formatCount,
+  formatDuration,
+  formatInterval,
+  formatMoney,
+  formatPercent,
+} from './format';
 
 // Plain-language explanations of each figure, shown on hover and focus wherever it appears.
 
@@ -34,19 +46,54 @@ export const onTimeText = ({ onTime: o }: ShopFigures) =>
     ? 'No job with a promised time became ready in this period.'
     : `${formatCount(o.onTime)} of ${formatCount(o.total)} jobs with a promised time were ready by it.`;
 
+/** How many of the period's jobs are still being followed, in words. */
+export function followedText(c: ComebackFigures, warrantyDays: number) {
+  const e = c.estimate;
+  if (e.stillFollowed === 0) return '';
+  return `${formatCount(e.stillFollowed)} of its ${formatCount(e.jobs)} jobs are still inside their ${warrantyDays}-day window and still followed.`;
+}
+
 export function comebackText(f: ShopFigures, settings: NetworkComparisonResult['settings']) {
   const c = f.comebacks;
   const warranty = settings.warrantyDays;
   const counted = settings.countedAttributions.map((a) => a.replace('_', ' ')).join(' or ');
-  if (c.trials === 0)
-    return `No collected job in this period has a closed ${warranty}-day warranty window yet, and none has come back.`;
-  const left =
-    c.censored > 0 ? `; ${formatCount(c.censored)} still inside their window are left out` : '';
   const pending =
     c.awaitingReview > 0
       ? ` ${formatCount(c.awaitingReview)} more came back and await review, not counted yet.`
       : '';
-  return `${formatCount(c.events)} of ${formatCount(c.trials)} jobs came back for ${counted}. Counted: jobs collected in the period whose ${warranty}-day warranty window has closed, plus those that already came back${left}. 95% Wilson interval ${formatInterval(c.interval)}.${pending}`;
+  if (c.comparison === 'ratio') {
+    const e = c.estimate;
+    if (e.jobs === 0) return 'No job was collected in this period yet.';
+    const how =
+      e.method === 'kaplan-meier'
+        ? `Estimated from each job's follow-up so far (Kaplan–Meier): the chance that a job comes back for ${counted} within ${warranty} days, 95% interval ${formatInterval(c.interval)}.`
+        : e.method === 'network × ratio'
+          ? `No job of this period has been followed for all ${warranty} days yet, so the estimate is the network's ${warranty}-day rate times this shop's observed ÷ expected comebacks, 95% interval ${formatInterval(c.interval)}.`
+          : 'There is no estimate yet.';
+    return `Estimate, not final. ${formatCount(e.events)} of ${formatCount(e.jobs)} jobs came back for ${counted} so far. ${how} ${followedText(c, warranty)}${pending}`;
+  }
+  if (c.trials === 0)
+    return `No collected job in this period has a closed ${warranty}-day warranty window yet, and none has come back.`;
+  return `${formatCount(c.events)} of ${formatCount(c.trials)} jobs came back for ${counted}: every ${warranty}-day warranty window of the period has closed, so the rate is final. 95% Wilson interval ${formatInterval(c.interval)}.${pending}`;
+}
+
+/** Plain words for a comeback band: the final-rate funnel, or observed against expected. */
+export function comebackBandText(c: ComebackFigures, networkRate: number | null) {
+  if (c.comparison !== 'ratio') return bandExplanation('comebacks', c, networkRate);
+  const r = c.ratio;
+  if (!r || c.band === null) {
+    return 'Nothing to compare yet: no network curve to measure this period against, or no job collected.';
+  }
+  const oe = `${formatCount(r.observed)} comeback${r.observed === 1 ? '' : 's'} so far against ${r.expected.toFixed(1)} expected from the network's curve over these jobs' own follow-up (O/E ${r.ratio === null ? '—' : r.ratio.toFixed(2)})`;
+  if (r.note === 'too little follow-up' || r.note === 'nothing expected') {
+    return `In line: ${oe}. Too little follow-up to judge yet.`;
+  }
+  if (r.note === 'within its own uncertainty') {
+    return `In line: ${oe}. Outside a funnel line, but so few comebacks are within their own uncertainty.`;
+  }
+  if (c.band === 'in line') return `In line: ${oe}, within what chance alone gives.`;
+  const odds = c.band === 'on watch' ? '1 time in 20' : '1 time in 500';
+  return `${BAND_LABELS[c.band]}: ${oe}; a ratio this ${r.side === 'low' ? 'low' : 'high'} happens by chance less than ${odds}.`;
 }
 
 export const revenueText = ({ revenue: r }: ShopFigures) =>

@@ -26,7 +26,7 @@ function bandSummary(rows: { name: string; f: RateFigures }[], networkRate: numb
   return parts.join(' ');
 }
 
-function Legend() {
+function Legend(props: { ratio?: boolean }) {
   return (
     <div className="flex flex-wrap gap-x-4 gap-y-1">
       <LegendItem colour={BAND_COLOURS['in line']}>In line</LegendItem>
@@ -37,7 +37,7 @@ function Legend() {
         Out of line
       </LegendItem>
       <LegendItem colour={FUNNEL_COLOURS.network} mark="line">
-        Network rate
+        {props.ratio ? 'As expected (1×)' : 'Network rate'}
       </LegendItem>
       <LegendItem colour={FUNNEL_COLOURS.limit95} mark="dash">
         95% limits
@@ -111,6 +111,87 @@ function FunnelFigure(props: {
   );
 }
 
+const ratioText = (x: number | null) => (x === null ? '—' : `${x.toFixed(2)}×`);
+const ratioLimits = (i: { lower: number; upper: number } | null) =>
+  i ? `${i.lower.toFixed(2)}–${i.upper.toFixed(2)}×` : '—';
+
+/**
+ * While warranty windows are open: each shop's observed ÷ expected comebacks against the
+ * comebacks expected from the network's curve over its jobs' follow-up, with Spiegelhalter's
+ * Poisson funnel around 1.
+ */
+function RatioFunnel({ data }: { data: NetworkComparisonResult }) {
+  const rows = data.shops.filter((s) => s.comebacks.ratio !== null);
+  const judged = rows.filter((s) => s.comebacks.ratio!.expected > 0 && s.comebacks.band !== null);
+  if (judged.length === 0) {
+    return (
+      <p className="text-slate-600">
+        No comebacks can be expected yet for the jobs of this period (no network curve, or no job
+        followed for a day), so there is nothing to compare.
+      </p>
+    );
+  }
+  const title =
+    'Comebacks observed ÷ expected against comebacks expected, with the 95% and 99.8% funnel limits around 1';
+  return (
+    <ChartFigure
+      id="funnel-comebacks"
+      title={title}
+      summary={bandSummary(
+        judged.map((s) => ({
+          name: s.shop.name,
+          f: { ...s.comebacks, rate: s.comebacks.rate },
+        })),
+        data.network.comebacks.rate ?? 0,
+        'estimated comeback rate',
+      ).replace(' for their volume.', ' for the comebacks their follow-up predicts.')}
+      legend={<Legend ratio />}
+      table={
+        <FigureTable
+          caption={title}
+          columns={[
+            { label: 'Shop' },
+            { label: 'Comebacks expected', numeric: true },
+            { label: 'Comebacks observed', numeric: true },
+            { label: 'Observed ÷ expected', numeric: true },
+            { label: '95% limits', numeric: true },
+            { label: '99.8% limits', numeric: true },
+            { label: 'Band' },
+          ]}
+          rows={rows.map((s) => {
+            const r = s.comebacks.ratio!;
+            return {
+              key: String(s.shop.id),
+              cells: [
+                s.shop.name,
+                r.expected.toFixed(1),
+                formatCount(r.observed),
+                ratioText(r.ratio),
+                ratioLimits(r.funnel95),
+                ratioLimits(r.funnel998),
+                <BandBadge key="band" band={s.comebacks.band} side={s.comebacks.side} />,
+              ],
+            };
+          })}
+        />
+      }
+    >
+      <FunnelChart
+        kind="ratio"
+        xLabel="Comebacks expected from the network's curve"
+        networkRate={1}
+        points={judged.map((s) => ({
+          id: s.shop.id,
+          label: s.shop.name,
+          trials: s.comebacks.ratio!.expected,
+          rate: s.comebacks.ratio!.ratio ?? 0,
+          band: s.comebacks.band!,
+        }))}
+      />
+    </ChartFigure>
+  );
+}
+
 /** Funnel plots of comeback rate and audit failure rate against volume for the shops in view. */
 export function FunnelPanel({ data }: { data: NetworkComparisonResult }) {
   const comebackRate = data.network.comebacks.rate;
@@ -118,7 +199,9 @@ export function FunnelPanel({ data }: { data: NetworkComparisonResult }) {
   const withComebacks = data.shops.filter((s) => s.comebacks.trials > 0);
   return (
     <div className="grid grid-cols-[minmax(0,1fr)] gap-8">
-      {comebackRate === null || withComebacks.length === 0 ? (
+      {data.network.comebacks.comparison === 'ratio' ? (
+        <RatioFunnel data={data} />
+      ) : comebackRate === null || withComebacks.length === 0 ? (
         <p className="text-slate-600">
           No collected job in this period has a closed warranty window yet, so there is no comeback
           rate to compare.

@@ -6,7 +6,7 @@ import { comparisonQuery, networkTrendsQuery, type PeriodParams } from '~/lib/qu
 import { ComparisonTable } from './comparison-table';
 import { Explain } from './explain';
 import { CensoringNote } from './censoring-note';
-import { formatCount, formatMoney, formatPercent } from './format';
+import { formatCount, formatInterval, formatMoney, formatPercent } from './format';
 import { FunnelPanel } from './funnel-panel';
 import { PeriodPicker } from './period-picker';
 import { formatMonth, formatPeriod } from './periods';
@@ -78,10 +78,22 @@ export function NetworkView(props: {
           explain="Jobs of the shops shown that became ready for pickup in the period, each in its shop's own time zone."
         />
         <Fact
-          label="Network comeback rate"
+          label={
+            data.network.comebacks.comparison === 'ratio'
+              ? 'Network comeback rate (estimate)'
+              : 'Network comeback rate'
+          }
           value={formatPercent(data.network.comebacks.rate)}
-          hint={`${formatCount(data.network.comebacks.events)} of ${formatCount(data.network.comebacks.trials)} jobs, all ${data.network.shops} shops`}
-          explain={`Comebacks for ${data.settings.countedAttributions.map((a) => a.replace('_', ' ')).join(' or ')} over the jobs counted at every shop of the network: the rate each shop is judged against.`}
+          hint={
+            data.network.comebacks.comparison === 'ratio'
+              ? `95% ${formatInterval(data.network.comebacks.estimate.interval)}; ${formatCount(data.network.comebacks.estimate.stillFollowed)} of ${formatCount(data.network.comebacks.estimate.jobs)} jobs still followed`
+              : `${formatCount(data.network.comebacks.events)} of ${formatCount(data.network.comebacks.trials)} jobs, all ${data.network.shops} shops`
+          }
+          explain={
+            data.network.comebacks.comparison === 'ratio'
+              ? `The estimated chance that a job collected in the period comes back for ${data.settings.countedAttributions.map((a) => a.replace('_', ' ')).join(' or ')} within ${data.settings.warrantyDays} days, from the follow-up so far of every shop's jobs (Kaplan–Meier, or the network curve carried by the period's observed ÷ expected comebacks while no job has been followed for the whole window).`
+              : `Comebacks for ${data.settings.countedAttributions.map((a) => a.replace('_', ' ')).join(' or ')} over the jobs counted at every shop of the network: the rate each shop is judged against.`
+          }
         />
         <Fact
           label="Network revenue per bench hour"
@@ -91,8 +103,8 @@ export function NetworkView(props: {
         />
       </dl>
       <CensoringNote
-        collected={data.view.comebacks.collected}
-        censored={data.view.comebacks.censored}
+        comebacks={data.view.comebacks}
+        reference={data.reference}
         warrantyDays={data.settings.warrantyDays}
         to={data.period.to}
       />

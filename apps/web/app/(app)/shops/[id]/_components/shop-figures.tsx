@@ -7,6 +7,7 @@ import { Explain } from '../../../network/_components/explain';
 import {
   actionsText,
   auditText,
+  comebackBandText,
   comebackText,
   formatScore,
   jobsReadyText,
@@ -72,12 +73,21 @@ export function Figures({ m, unit }: { m: ShopMetricsResult; unit: TurnaroundUni
         <Explain text={onTimeText(f)}>{formatPercent(f.onTime.share, 0)}</Explain>
       </Card>
       <Card
-        label="Comeback rate"
+        label={f.comebacks.comparison === 'ratio' ? 'Comeback rate (estimate)' : 'Comeback rate'}
         hint={
           <>
             <span className="block">95% interval {formatInterval(f.comebacks.interval)}</span>
+            {f.comebacks.comparison === 'ratio' && (
+              <span className="block">
+                {formatCount(f.comebacks.estimate.stillFollowed)} of{' '}
+                {formatCount(f.comebacks.estimate.jobs)} jobs still followed
+                {f.comebacks.ratio
+                  ? `; ${formatCount(f.comebacks.ratio.observed)} back, ${f.comebacks.ratio.expected.toFixed(1)} expected`
+                  : ''}
+              </span>
+            )}
             <Explain
-              text={bandExplanation('comebacks', f.comebacks, m.network.comebacks.rate)}
+              text={comebackBandText(f.comebacks, m.network.comebacks.rate)}
               className="mt-1 no-underline"
             >
               <BandBadge band={f.comebacks.band} side={f.comebacks.side} />

@@ -246,8 +246,8 @@ export function ShopView(props: {
         </p>
       )}
       <CensoringNote
-        collected={m.figures.comebacks.collected}
-        censored={m.figures.comebacks.censored}
+        comebacks={m.figures.comebacks}
+        reference={m.reference}
         warrantyDays={m.settings.warrantyDays}
         to={m.period.to}
       />

@@ -1,0 +1,2 @@
+ALTER TABLE "network_settings" ADD COLUMN "comeback_reference_months" integer DEFAULT 12 NOT NULL;--> statement-breakpoint
+ALTER TABLE "network_settings" ADD CONSTRAINT "network_settings_reference_months_range" CHECK ("network_settings"."comeback_reference_months" between 1 and 36);
