@@ -16,15 +16,17 @@ async function smallTargets(page: Page) {
     const controls = main.querySelectorAll<HTMLElement>(
       'button, select, input:not([type=checkbox]):not([type=radio]):not([type=hidden]), textarea, label:has(input[type=checkbox]), label:has(input[type=radio])',
     );
-    return [...controls]
-      .filter((el) => el.offsetParent !== null)
-      // A visually hidden input (a file picker behind its styled label) is not the target.
-      .filter((el) => el.getBoundingClientRect().height > 2)
-      .filter((el) => el.getBoundingClientRect().height < 44)
-      .map(
-        (el) =>
-          `${el.tagName.toLowerCase()} “${(el.textContent ?? '').trim().slice(0, 40)}” ${Math.round(el.getBoundingClientRect().height)} px`,
-      );
+    return (
+      Array.from(controls)
+        .filter((el) => el.offsetParent !== null)
+        // A visually hidden input (a file picker behind its styled label) is not the target.
+        .filter((el) => el.getBoundingClientRect().height > 2)
+        .filter((el) => el.getBoundingClientRect().height < 44)
+        .map(
+          (el) =>
+            `${el.tagName.toLowerCase()} “${(el.textContent ?? '').trim().slice(0, 40)}” ${Math.round(el.getBoundingClientRect().height)} px`,
+        )
+    );
   });
 }
 
