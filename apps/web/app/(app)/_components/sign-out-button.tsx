@@ -23,10 +23,11 @@ export function SignOutButton() {
       disabled={leaving}
       onClick={() => {
         setLeaving(true);
-        // Whatever the answer, leave: the sign-in page shows whether the session is gone.
+        // Whatever the answer, leave with a full load, so nothing of the session stays in memory;
+        // the sign-in page shows whether the session is gone.
         void signOut()
           .catch(() => undefined)
-          .finally(() => window.location.assign('/sign-in'));
+          .finally(() => window.location.replace(new URL('/sign-in', window.location.origin)));
       }}
       className="min-h-11 rounded-md border border-sea-500 px-3 font-medium text-white hover:bg-sea-700 disabled:opacity-70"
     >
