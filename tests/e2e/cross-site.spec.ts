@@ -158,7 +158,9 @@ test.describe('shop lead, replaying the cross-site and oversized requests', () =
       // Served over plain http here: no HSTS.
       expect(h['strict-transport-security']).toBeUndefined();
     }
-    expect(api['content-security-policy']).toBe("default-src 'none'; frame-ancestors 'none'");
+    expect(api['content-security-policy']).toBe(
+      "default-src 'none'; frame-ancestors 'none'; sandbox",
+    );
   });
 });
 
