@@ -112,7 +112,7 @@ async function shoot(page: Page, name: string) {
 }
 
 test.describe('comebacks', () => {
-  test('shop lead – reviews a comeback flagged at check-in, and the network rate moves', async ({
+  test('shop lead – reviews a comeback flagged at check-in, and the network estimate follows', async ({
     browser,
     baseURL,
   }) => {
@@ -227,12 +227,16 @@ test.describe('comebacks', () => {
     await shoot(page, 'comebacks-review-confirmed');
     await lead.close();
 
-    // The network view counts it: one more trial and one more event for Marram Point.
+    // The network view: the same collected jobs, still an estimate. A comeback counts in the
+    // estimate once the day of follow-up it fell on is complete (within 24 h: see followUp in
+    // @reelwright/metrics), so the count moves by at most one now, and the figure with it.
     const after = await marramRate(ownerPage, period);
-    // One more counted comeback among the same collected jobs: the estimate goes up.
-    expect(after.events).toBe(before.events + 1);
+    expect(after.final).toBe(false);
     expect(after.trials).toBe(before.trials);
-    expect(Number.parseFloat(after.shown)).toBeGreaterThan(Number.parseFloat(before.shown));
+    expect(after.events).toBeGreaterThanOrEqual(before.events);
+    expect(after.events).toBeLessThanOrEqual(before.events + 1);
+    if (after.events === before.events) expect(after.shown).toBe(before.shown);
+    else expect(Number.parseFloat(after.shown)).toBeGreaterThan(Number.parseFloat(before.shown));
     console.log(
       `Marram Point, jobs collected ${from} to ${day}: ${before.events} of ${before.trials} (${before.shown}) → ${after.events} of ${after.trials} (${after.shown})`,
     );

@@ -70,7 +70,7 @@ export function comebackText(f: ShopFigures, settings: NetworkComparisonResult['
         : e.method === 'network × ratio'
           ? `No job of this period has been followed for all ${warranty} days yet, so the estimate is the network's ${warranty}-day rate times this shop's observed ÷ expected comebacks, 95% interval ${formatInterval(c.interval)}.`
           : 'There is no estimate yet.';
-    return `Estimate, not final. ${formatCount(e.events)} of ${formatCount(e.jobs)} jobs came back for ${counted} so far. ${how} ${followedText(c, warranty)}${pending}`;
+    return `Estimate, not final. ${formatCount(e.events)} of ${formatCount(e.jobs)} jobs came back for ${counted} so far. ${how} ${followedText(c, warranty)}${pending} A comeback joins the estimate once the day of follow-up it fell on is over (within 24 hours).`;
   }
   if (c.trials === 0)
     return `No collected job in this period has a closed ${warranty}-day warranty window yet, and none has come back.`;
