@@ -19,6 +19,11 @@ export async function register() {
     console.log(
       `Reelwright: database ${handle.driver}${env.DATABASE_URL ? '' : ' (embedded)'}, ${applied} migration(s) applied`,
     );
+    // An import cut off by a crash is taken back now: on the embedded database nothing else can
+    // be running one; on a server, only those whose heartbeat stopped.
+    const { takeBackAbandonedImports } = await import('./server/imports/jobs');
+    const takenBack = await takeBackAbandonedImports({ all: handle.driver === 'pglite' });
+    if (takenBack) console.log(`Reelwright: took back ${takenBack} import(s) cut off part-way`);
   } catch (error) {
     // Exiting lets a supervisor (or the person starting it) see why, instead of a server that
     // answers every request with an error.

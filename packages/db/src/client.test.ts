@@ -6,10 +6,12 @@ import { afterEach, describe, expect, it } from 'vitest';
 import {
   appliedMigrationCount,
   closeAllDbs,
+  DataDirInUseError,
   getDb,
   MEMORY,
   journaledMigrationCount,
   migrate,
+  openDb,
   resolveMigrationsDir,
   runMigrations,
 } from './client';
@@ -115,4 +117,60 @@ describe('getDb', () => {
     expect(c).not.toBe(a);
     expect(c.migrationsApplied).toBe(0);
   });
+});
+
+describe('PGlite in a worker thread (the web server’s embedded database)', () => {
+  it('keeps this thread free during a long statement, takes turns with transactions, and keeps its data and lock', async () => {
+    const dir = mkdtempSync(path.join(os.tmpdir(), 'rw-isolated-'));
+    try {
+      const handle = await openDb({ dataDir: dir, isolate: true });
+      try {
+        expect(handle.driver).toBe('pglite');
+        await runMigrations(handle);
+        // A second opener of the folder is refused while this one holds it.
+        await expect(openDb({ dataDir: dir, isolate: true })).rejects.toBeInstanceOf(
+          DataDirInUseError,
+        );
+
+        // While the database works for 600 ms, timers on this thread keep firing.
+        let ticks = 0;
+        const timer = setInterval(() => ticks++, 20);
+        await handle.db.execute(sql`select pg_sleep(0.6)`);
+        clearInterval(timer);
+        expect(ticks).toBeGreaterThanOrEqual(15);
+
+        // A query sent while a transaction is open waits for it and never runs inside it.
+        let inside = -1;
+        const tx = handle.db.transaction(async (t) => {
+          await t.execute(sql`create table turn_test (n int)`);
+          await t.execute(sql`insert into turn_test values (1)`);
+          await new Promise((r) => setTimeout(r, 100));
+          await t.execute(sql`insert into turn_test values (2)`);
+          throw new Error('roll back');
+        });
+        const outside = handle.db
+          .execute<{ n: number }>(
+            sql`select count(*)::int as n from pg_tables where tablename = 'turn_test'`,
+          )
+          .then((r) => (inside = r.rows[0]!.n));
+        await expect(tx).rejects.toThrow('roll back');
+        await outside;
+        expect(inside).toBe(0);
+
+        await handle.db.insert(regions).values({ name: 'Kept Shore', code: 'kept' });
+      } finally {
+        await handle.close();
+      }
+      // Closed cleanly: the next opener gets the folder and finds the row.
+      const again = await openDb({ dataDir: dir });
+      try {
+        const rows = await again.db.select().from(regions);
+        expect(rows.map((r) => r.code)).toEqual(['kept']);
+      } finally {
+        await again.close();
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }, 120_000);
 });

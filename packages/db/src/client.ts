@@ -1,9 +1,13 @@
 import { sql, type Assume } from 'drizzle-orm';
 import { readMigrationFiles } from 'drizzle-orm/migrator';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import os from 'node:os';
 import path from 'node:path';
+import { Worker } from 'node:worker_threads';
 import { lockDataDir, type FolderLock } from './lock';
-import { defaultDataDir, resolveMigrationsDir } from './paths';
+import { defaultDataDir, packageDir, resolveMigrationsDir } from './paths';
 import * as schema from './schema';
 
 export { DataDirInUseError } from './lock';
@@ -33,6 +37,12 @@ export interface OpenDbOptions {
   dataDir?: string;
   /** Pool size for PostgreSQL. */
   maxConnections?: number;
+  /**
+   * PGlite only: run the database in a worker thread behind a PostgreSQL-protocol socket, and
+   * talk to it through node-postgres, so that long statements do not hold up this thread's
+   * event loop (the web server). In-process otherwise (scripts and tests).
+   */
+  isolate?: boolean;
 }
 
 export interface DbHandle {
@@ -47,7 +57,8 @@ export const MEMORY = 'memory://';
 
 export async function openDb(options: OpenDbOptions = {}): Promise<DbHandle> {
   if (options.url) return openPg(options.url, options.maxConnections ?? 10);
-  return openPglite(options.dataDir ?? defaultDataDir());
+  const dataDir = options.dataDir ?? defaultDataDir();
+  return options.isolate ? openIsolatedPglite(dataDir) : openPglite(dataDir);
 }
 
 async function openPg(url: string, max: number): Promise<DbHandle> {
@@ -101,6 +112,130 @@ async function openPglite(dataDir: string): Promise<DbHandle> {
     lock?.release();
     throw error;
   }
+}
+
+/**
+ * PGlite in a worker thread, served over a Unix socket in a private folder by
+ * @electric-sql/pglite-socket; this thread holds the folder's lock (the worker dies with the
+ * process) and reaches the database through a node-postgres pool of ONE connection: PGlite is a
+ * single session, so requests take turns at the pool, and a transaction holds the database only
+ * while it runs. Work that must not block others commits in short transactions.
+ */
+async function openIsolatedPglite(dataDir: string): Promise<DbHandle> {
+  const memory = dataDir === MEMORY;
+  const folder = memory ? MEMORY : path.resolve(dataDir);
+  const lock: FolderLock | null = memory ? null : await lockDataDir(folder);
+  const socketDir = mkdtempSync(path.join(os.tmpdir(), 'reelwright-pglite-'));
+  let worker: PgliteWorker | null = null;
+  try {
+    worker = await startPgliteWorker(folder, socketDir);
+    const [{ default: pg }, { drizzle }] = await Promise.all([
+      import('pg'),
+      import('drizzle-orm/node-postgres'),
+    ]);
+    // The socket file is `<host>/.s.PGSQL.<port>`, as a PostgreSQL server's.
+    const pool = new pg.Pool({ host: socketDir, port: SOCKET_PORT, user: 'postgres', max: 1 });
+    pool.on('error', (error) => console.error('[db] embedded database connection:', error.message));
+    const db = drizzle({ client: pool, schema }) as unknown as Db;
+    const running = worker;
+    let closed = false;
+    return {
+      db,
+      driver: 'pglite',
+      dataDir: folder,
+      async close() {
+        if (closed) return;
+        closed = true;
+        try {
+          await pool.end();
+          await running.stop();
+        } finally {
+          rmSync(socketDir, { recursive: true, force: true });
+          lock?.release();
+        }
+      },
+    };
+  } catch (error) {
+    await worker?.stop().catch(() => {});
+    rmSync(socketDir, { recursive: true, force: true });
+    lock?.release();
+    throw error;
+  }
+}
+
+const SOCKET_PORT = 5432;
+
+// The worker: open PGlite, serve it on the socket, and close it cleanly when asked. Modules are
+// imported by absolute path, resolved from this package, since an eval'd worker has no package.
+const PGLITE_WORKER = `
+const { workerData, parentPort } = require('node:worker_threads');
+const { pathToFileURL } = require('node:url');
+(async () => {
+  const { PGlite } = await import(pathToFileURL(workerData.pglite).href);
+  const { PGLiteSocketServer } = await import(pathToFileURL(workerData.socket).href);
+  const db = workerData.dataDir === 'memory://' ? await PGlite.create() : await PGlite.create(workerData.dataDir);
+  const server = new PGLiteSocketServer({ db, path: workerData.path, maxConnections: 64 });
+  await server.start();
+  parentPort.on('message', async (message) => {
+    if (message !== 'stop') return;
+    try {
+      await server.stop();
+      await db.close();
+      parentPort.postMessage({ stopped: true });
+    } catch (error) {
+      parentPort.postMessage({ stopped: true, error: String(error && error.message || error) });
+    }
+  });
+  parentPort.postMessage({ ready: true });
+})().catch((error) => parentPort.postMessage({ error: String(error && error.stack || error) }));
+`;
+
+interface PgliteWorker {
+  stop(): Promise<void>;
+}
+
+function startPgliteWorker(dataDir: string, socketDir: string): Promise<PgliteWorker> {
+  const resolve = createRequire(
+    path.join(/* turbopackIgnore: true */ packageDir(), 'package.json'),
+  ).resolve;
+  const worker = new Worker(PGLITE_WORKER, {
+    eval: true,
+    workerData: {
+      dataDir,
+      path: path.join(/* turbopackIgnore: true */ socketDir, `.s.PGSQL.${SOCKET_PORT}`),
+      pglite: resolve('@electric-sql/pglite'),
+      socket: resolve('@electric-sql/pglite-socket'),
+    },
+  });
+  let stopping: Promise<void> | null = null;
+  const stop = () =>
+    (stopping ??= new Promise<void>((done) => {
+      const timer = setTimeout(() => void worker.terminate().then(() => done()), 10_000);
+      worker.once('exit', () => {
+        clearTimeout(timer);
+        done();
+      });
+      worker.on('message', (message: { stopped?: boolean; error?: string }) => {
+        if (!message.stopped) return;
+        if (message.error) console.error('[db] closing the embedded database:', message.error);
+        void worker.terminate();
+      });
+      worker.postMessage('stop');
+    }));
+  return new Promise((ready, fail) => {
+    worker.on('message', (message: { ready?: boolean; error?: string }) => {
+      if (message.ready) ready({ stop });
+      else if (message.error) {
+        void worker.terminate();
+        fail(new Error(`The embedded database did not start: ${message.error}`));
+      }
+    });
+    worker.once('error', (error) => fail(error));
+    worker.once('exit', (code) => {
+      fail(new Error(`The embedded database stopped (worker exit ${code}).`));
+      if (!stopping) console.error(`[db] the embedded database stopped (worker exit ${code})`);
+    });
+  });
 }
 
 export interface MigrateOptions {

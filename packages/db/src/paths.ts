@@ -19,6 +19,37 @@ export function defaultDataDir(): string {
   return path.join(/* turbopackIgnore: true */ root, 'data', 'pglite');
 }
 
+/**
+ * This package's folder (holding its package.json), found the way `resolveMigrationsDir` finds
+ * the migrations: REELWRIGHT_DB_PACKAGE_DIR, then the module path, then the workspace root.
+ */
+export function packageDir(): string {
+  const candidates: string[] = [];
+  const fromEnv = process.env.REELWRIGHT_DB_PACKAGE_DIR;
+  if (fromEnv) candidates.push(fromEnv);
+  try {
+    candidates.push(
+      path.join(/* turbopackIgnore: true */ path.dirname(fileURLToPath(import.meta.url)), '..'),
+    );
+  } catch {
+    // Bundled: fall through to the workspace root.
+  }
+  const root = findWorkspaceRoot();
+  if (root) candidates.push(path.join(/* turbopackIgnore: true */ root, 'packages', 'db'));
+  const found = candidates.find((dir) =>
+    existsSync(
+      path.join(/* turbopackIgnore: true */ dir, 'node_modules', '@electric-sql', 'pglite-socket'),
+    ),
+  );
+  if (!found) {
+    throw new Error(
+      `The database package was not found (looked in: ${candidates.join(', ')}). ` +
+        'Set REELWRIGHT_DB_PACKAGE_DIR to packages/db.',
+    );
+  }
+  return path.resolve(found);
+}
+
 function hasJournal(dir: string): boolean {
   return existsSync(path.join(/* turbopackIgnore: true */ dir, 'meta', '_journal.json'));
 }

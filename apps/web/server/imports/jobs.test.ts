@@ -14,7 +14,7 @@ import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testin
 import { ApiError } from '../errors';
 import { shopCalendar } from '../bench/calendar';
 import { buildImportNetwork, identityMapping, importRows, toCsv } from './fixture';
-import { runImport } from './jobs';
+import { runImport, takeBackAbandonedImports } from './jobs';
 import { prepareImport } from './prepare';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
@@ -26,8 +26,9 @@ const file = (csv: string, fileName = 'old-system.csv') => ({
   bytes: new TextEncoder().encode(csv),
   mapping: identityMapping,
 });
-const countOf = async (table: typeof jobs | typeof customers | typeof reels | typeof jobEvents) =>
-  (await db().select({ n: count() }).from(table))[0]!.n;
+const countOf = async (
+  table: typeof jobs | typeof customers | typeof reels | typeof jobEvents | typeof benchSessions,
+) => (await db().select({ n: count() }).from(table))[0]!.n;
 
 async function importCsv(csv: string, fileName?: string) {
   const prepared = await prepareImport(net.lead, file(csv, fileName));
@@ -47,9 +48,9 @@ beforeEach(async () => {
     'bench_sessions',
     'job_events',
     'jobs',
-    'import_batches',
     'reels',
     'customers',
+    'import_batches',
     'users',
     'shops',
     'regions',
@@ -182,19 +183,99 @@ describe('CSV import of past jobs', () => {
     expect(batch).toMatchObject({ status: 'failed', errorCount: 2, importedCount: 0 });
   });
 
-  it('rolls everything back when storing fails part-way', async () => {
+  it('takes everything back when storing fails part-way, and says so in the history', async () => {
     const prepared = await prepareImport(net.lead, file(toCsv(importRows(6000))));
     if (!prepared.ok) throw new Error('expected a clean file');
+    const reelsBefore = await db().select().from(reels);
     await expect(
       runImport(net.lead, prepared, (p) => {
         if (p.done >= 2500) throw new Error('the disk filled up');
       }),
     ).rejects.toThrow('the disk filled up');
     expect(await countOf(jobs)).toBe(0);
-    expect(await countOf(reels)).toBe(0);
+    expect(await db().select().from(reels)).toEqual(reelsBefore);
     expect(await countOf(customers)).toBe(1);
     expect(await countOf(jobEvents)).toBe(0);
-    expect(await db().select().from(importBatches)).toEqual([]);
+    expect(await countOf(benchSessions)).toBe(0);
+    const [batch] = await db().select().from(importBatches);
+    expect(batch).toMatchObject({
+      status: 'failed',
+      importedCount: 0,
+      errors: [{ row: 0, message: 'Storing failed; nothing was kept.' }],
+    });
+    // The monthly figures the triggers kept up follow the rows out again.
+    const { rows } = await db().execute<{ n: number }>(
+      sql`select coalesce(sum(jobs_ready), 0)::int as n from shop_month_figures`,
+    );
+    expect(rows[0]!.n).toBe(0);
+  }, 30_000);
+
+  it('takes back an import cut off by a crash, at the next import or start-up', async () => {
+    const [cutOff] = await db()
+      .insert(importBatches)
+      .values({
+        shopId: net.shop.id,
+        fileName: 'cut-off.csv',
+        fileDigest: 'f'.repeat(64),
+        status: 'importing',
+        rowCount: 1,
+        heartbeatAt: new Date(Date.now() - 10 * 60_000),
+      })
+      .returning({ id: importBatches.id });
+    const [live] = await db()
+      .insert(importBatches)
+      .values({
+        shopId: net.shop.id,
+        fileName: 'running.csv',
+        fileDigest: 'e'.repeat(64),
+        status: 'importing',
+        rowCount: 1,
+        heartbeatAt: new Date(),
+      })
+      .returning({ id: importBatches.id });
+    const [customer] = await db()
+      .insert(customers)
+      .values({ shopId: net.shop.id, name: 'Cut Off', importBatchId: cutOff!.id })
+      .returning();
+    const [reel] = await db()
+      .insert(reels)
+      .values({
+        customerId: customer!.id,
+        kind: 'spinning',
+        maker: 'Any',
+        model: 'One',
+        importBatchId: cutOff!.id,
+      })
+      .returning();
+    await db().insert(jobs).values({
+      shopId: net.shop.id,
+      customerId: customer!.id,
+      reelId: reel!.id,
+      serviceType: 'tune_up',
+      state: 'checked_in',
+      checkedInAt: new Date(),
+      importBatchId: cutOff!.id,
+      externalRef: 'CUT-1',
+    });
+    // A live import elsewhere (fresh heartbeat) is left alone; the cut-off one is taken back.
+    expect(await takeBackAbandonedImports()).toBe(1);
+    expect(await countOf(jobs)).toBe(0);
+    expect(await countOf(reels)).toBe(0);
+    expect(await countOf(customers)).toBe(1);
+    const statuses = await db()
+      .select({ id: importBatches.id, status: importBatches.status, errors: importBatches.errors })
+      .from(importBatches)
+      .orderBy(asc(importBatches.id));
+    expect(statuses).toEqual([
+      {
+        id: cutOff!.id,
+        status: 'failed',
+        errors: [{ row: 0, message: 'The server stopped during the import; nothing was kept.' }],
+      },
+      { id: live!.id, status: 'importing', errors: null },
+    ]);
+    // At start-up on the embedded database, nothing else can be importing.
+    expect(await takeBackAbandonedImports({ all: true })).toBe(1);
   }, 30_000);
 
   it('refuses the same file a second time instead of doubling it', async () => {

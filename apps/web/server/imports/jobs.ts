@@ -1,4 +1,4 @@
-import { desc, eq, isNotNull, sql } from '@reelwright/db';
+import { and, desc, eq, isNotNull, isNull, lt, or, sql, type Tx } from '@reelwright/db';
 import {
   activityLog,
   benchSessions,
@@ -58,10 +58,21 @@ const reelKey = (
 ) =>
   `${customerId}|${r.kind}|${r.maker.toLowerCase()}|${r.model.toLowerCase()}|${(r.size ?? '').toLowerCase()}`;
 
+/** Customers or reels per transaction. */
+const ROW_CHUNK = 2_500;
+/** Jobs per transaction, each with its timeline and bench time (about five rows a job). */
+const JOB_CHUNK = 1_000;
+/** An import whose heartbeat is older than this was cut off (a chunk commits within seconds). */
+export const ABANDONED_AFTER_MS = 2 * 60_000;
+
 /**
- * Writes a prepared import in ONE transaction: customers and reels found or created, the jobs with
- * their timeline, bench time and business-time turnaround, and the batch. Any failure rolls all of
- * it back. Rows go in with multi-row statements, thousands at a time.
+ * Writes a prepared import in short transactions, so that other users' requests are answered
+ * between them: the batch first (status `importing`), then customers and reels, then jobs a
+ * thousand at a time with their timeline, bench time and business-time turnaround, each chunk
+ * refreshing the batch's heartbeat; a last transaction brings existing reels' last service up to
+ * date and marks the batch imported. While it runs, the jobs written so far are visible. Any
+ * failure takes the batch's rows back out and marks it failed; an import cut off by a crash is
+ * taken back the same way by the next import or start-up (`takeBackAbandonedImports`).
  */
 export async function runImport(
   principal: Principal,
@@ -74,8 +85,7 @@ export async function runImport(
   const conn = await db();
   const total = rows.length;
   const note = `Imported from ${file.fileName}`;
-  // Work that needs no database is done before the transaction, in slices with a turn for the
-  // event loop between them, so that the transaction holds the database only to write.
+  // Work that needs no database is done first, in slices with a turn for the event loop.
   const timelines: ReturnType<typeof timeline>[] = [];
   const turnarounds: (ReturnType<typeof jobTurnaround> | null)[] = [];
   for (let i = 0; i < rows.length; i += PREPARE_BATCH) {
@@ -96,141 +106,152 @@ export async function runImport(
     }
     await yieldToEventLoop();
   }
-  // Between statements too: the embedded database answers without giving I/O a turn.
   const progress = async (p: ImportProgress) => {
     await onProgress(p);
     await yieldToEventLoop();
   };
 
-  try {
-    const summary = await conn.transaction(async (tx) => {
-      const [batch] = await tx
-        .insert(importBatches)
-        .values({
-          shopId: shop.id,
-          fileName: file.fileName,
-          fileDigest: prepared.digest,
-          sizeBytes: file.bytes.length,
-          status: 'importing',
-          rowCount: total,
-          columnMap: invert(file.mapping),
-          createdById: principal.id,
-        })
-        .returning({ id: importBatches.id });
-      const batchId = batch!.id;
+  await takeBackAbandonedImports();
+  const [batch] = await conn
+    .insert(importBatches)
+    .values({
+      shopId: shop.id,
+      fileName: file.fileName,
+      fileDigest: prepared.digest,
+      sizeBytes: file.bytes.length,
+      status: 'importing',
+      rowCount: total,
+      columnMap: invert(file.mapping),
+      createdById: principal.id,
+      heartbeatAt: new Date(),
+    })
+    .returning({ id: importBatches.id });
+  const batchId = batch!.id;
+  /** One chunk: its own transaction, which also says the import is alive. */
+  const chunk = <T>(write: (tx: Tx) => Promise<T>) =>
+    conn.transaction(async (tx) => {
+      const out = await write(tx);
+      await tx
+        .update(importBatches)
+        .set({ heartbeatAt: new Date() })
+        .where(eq(importBatches.id, batchId));
+      return out;
+    });
 
-      await progress({ step: 'customers', fraction: 0, done: 0, total });
-      // Customers: the shop's own, matched by e-mail, else phone, else name.
-      const known = await tx
-        .select({
-          id: customers.id,
-          name: customers.name,
-          email: customers.email,
-          phone: customers.phone,
-        })
-        .from(customers)
-        .where(eq(customers.shopId, shop.id));
-      const customerIds = new Map<string, number>();
-      for (const c of known) {
-        customerIds.set(customerKey({ ...c, reminderConsent: false }), c.id);
-        if (c.email) customerIds.set(`e:${c.email.toLowerCase()}`, c.id);
-      }
-      const pendingCustomers = new Map<string, ParsedImportRow['customer']>();
-      for (const row of rows) {
-        const key = customerKey(row.customer);
-        if (!customerIds.has(key) && !pendingCustomers.has(key))
-          pendingCustomers.set(key, row.customer);
-      }
-      const createdCustomers = await bulkInsert<{
-        id: number;
-        name: string;
-        email: string | null;
-        phone: string | null;
-      }>(
-        tx,
-        customers,
-        [...pendingCustomers.values()].map((c) => ({ shopId: shop.id, ...c })),
-        { returning: 'id, name, email, phone' },
+  try {
+    await progress({ step: 'customers', fraction: 0, done: 0, total });
+    // Customers: the shop's own, matched by e-mail, else phone, else name.
+    const known = await conn
+      .select({
+        id: customers.id,
+        name: customers.name,
+        email: customers.email,
+        phone: customers.phone,
+      })
+      .from(customers)
+      .where(eq(customers.shopId, shop.id));
+    const customerIds = new Map<string, number>();
+    for (const c of known) {
+      customerIds.set(customerKey({ ...c, reminderConsent: false }), c.id);
+      if (c.email) customerIds.set(`e:${c.email.toLowerCase()}`, c.id);
+    }
+    const pendingCustomers = new Map<string, ParsedImportRow['customer']>();
+    for (const row of rows) {
+      const key = customerKey(row.customer);
+      if (!customerIds.has(key) && !pendingCustomers.has(key))
+        pendingCustomers.set(key, row.customer);
+    }
+    let customersCreated = 0;
+    for (const slice of slices([...pendingCustomers.values()], ROW_CHUNK)) {
+      const created = await chunk((tx) =>
+        bulkInsert<{ id: number; name: string; email: string | null; phone: string | null }>(
+          tx,
+          customers,
+          slice.map((c) => ({ shopId: shop.id, ...c, importBatchId: batchId })),
+          { returning: 'id, name, email, phone' },
+        ),
       );
-      for (const c of createdCustomers) {
+      for (const c of created) {
         customerIds.set(customerKey({ ...c, reminderConsent: false }), Number(c.id));
       }
-      const customerOf = (row: ParsedImportRow) => customerIds.get(customerKey(row.customer))!;
+      customersCreated += created.length;
+      await yieldToEventLoop();
+    }
+    const customerOf = (row: ParsedImportRow) => customerIds.get(customerKey(row.customer))!;
 
-      // Reels: the customer's own, matched by kind, maker, model and size. A reel's last service
-      // is the latest ready date among its jobs, in the shop's calendar.
-      const knownReels = await tx
-        .select({
-          id: reels.id,
-          customerId: reels.customerId,
-          kind: reels.kind,
-          maker: reels.maker,
-          model: reels.model,
-          size: reels.size,
-          lastServicedOn: reels.lastServicedOn,
-        })
-        .from(reels)
-        .innerJoin(customers, eq(customers.id, reels.customerId))
-        .where(eq(customers.shopId, shop.id));
-      const reelIds = new Map(knownReels.map((r) => [reelKey(r.customerId, r), r.id]));
-      const servicedOn = new Map<string, string>();
-      const pendingReels = new Map<string, { customerId: number; reel: ParsedImportRow['reel'] }>();
-      for (const row of rows) {
-        const customerId = customerOf(row);
-        const key = reelKey(customerId, row.reel);
-        if (!reelIds.has(key) && !pendingReels.has(key))
-          pendingReels.set(key, { customerId, reel: row.reel });
-        if (row.readyAt) {
-          const day = localDate(row.readyAt, shop.timeZone);
-          const before = servicedOn.get(key);
-          if (!before || before < day) servicedOn.set(key, day);
-        }
+    // Reels: the customer's own, matched by kind, maker, model and size. A reel's last service
+    // is the latest ready date among its jobs, in the shop's calendar.
+    const knownReels = await conn
+      .select({
+        id: reels.id,
+        customerId: reels.customerId,
+        kind: reels.kind,
+        maker: reels.maker,
+        model: reels.model,
+        size: reels.size,
+        lastServicedOn: reels.lastServicedOn,
+      })
+      .from(reels)
+      .innerJoin(customers, eq(customers.id, reels.customerId))
+      .where(eq(customers.shopId, shop.id));
+    const reelIds = new Map(knownReels.map((r) => [reelKey(r.customerId, r), r.id]));
+    const servicedOn = new Map<string, string>();
+    const pendingReels = new Map<string, { customerId: number; reel: ParsedImportRow['reel'] }>();
+    for (const row of rows) {
+      const customerId = customerOf(row);
+      const key = reelKey(customerId, row.reel);
+      if (!reelIds.has(key) && !pendingReels.has(key))
+        pendingReels.set(key, { customerId, reel: row.reel });
+      if (row.readyAt) {
+        const day = localDate(row.readyAt, shop.timeZone);
+        const before = servicedOn.get(key);
+        if (!before || before < day) servicedOn.set(key, day);
       }
-      const createdReels = await bulkInsert<{
-        id: number;
-        customer_id: number;
-        kind: ParsedImportRow['reel']['kind'];
-        maker: string;
-        model: string;
-        size: string | null;
-      }>(
-        tx,
-        reels,
-        [...pendingReels].map(([key, { customerId, reel }]) => ({
-          customerId,
-          ...reel,
-          lastServicedOn: servicedOn.get(key) ?? null,
-        })),
-        { returning: 'id, customer_id, kind, maker, model, size' },
+    }
+    let reelsCreated = 0;
+    for (const slice of slices([...pendingReels], ROW_CHUNK)) {
+      const created = await chunk((tx) =>
+        bulkInsert<{
+          id: number;
+          customer_id: number;
+          kind: ParsedImportRow['reel']['kind'];
+          maker: string;
+          model: string;
+          size: string | null;
+        }>(
+          tx,
+          reels,
+          slice.map(([key, { customerId, reel }]) => ({
+            customerId,
+            ...reel,
+            lastServicedOn: servicedOn.get(key) ?? null,
+            importBatchId: batchId,
+          })),
+          { returning: 'id, customer_id, kind, maker, model, size' },
+        ),
       );
-      for (const r of createdReels) {
-        reelIds.set(reelKey(Number(r.customer_id), r), Number(r.id));
-      }
-      // Existing reels serviced later than their record says.
-      const updates = knownReels
-        .map((r) => [r.id, servicedOn.get(reelKey(r.customerId, r)), r.lastServicedOn] as const)
-        .filter((u): u is [number, string, string | null] => !!u[1] && (!u[2] || u[2] < u[1]));
-      if (updates.length) {
-        await tx.execute(
-          sql`update ${reels} set last_serviced_on = v.day
-              from unnest(${sql.param(updates.map(([id]) => String(id)))}::text[]::integer[],
-                          ${sql.param(updates.map(([, day]) => day))}::text[]::date[]) as v(id, day)
-              where ${reels.id} = v.id`,
-        );
-      }
+      for (const r of created) reelIds.set(reelKey(Number(r.customer_id), r), Number(r.id));
+      reelsCreated += created.length;
+      await yieldToEventLoop();
+    }
+    await progress({ step: 'customers', fraction: 0.12, done: 0, total });
 
-      // Standards: each job is tied to the version published when it was checked in.
-      const standards = await tx
-        .select({ id: serviceStandards.id, publishedAt: serviceStandards.publishedAt })
-        .from(serviceStandards)
-        .where(isNotNull(serviceStandards.publishedAt))
-        .orderBy(desc(serviceStandards.publishedAt));
-      const standardAt = (at: Date) =>
-        standards.find((st) => st.publishedAt!.getTime() <= at.getTime())?.id ?? null;
+    // Standards: each job is tied to the version published when it was checked in.
+    const standards = await conn
+      .select({ id: serviceStandards.id, publishedAt: serviceStandards.publishedAt })
+      .from(serviceStandards)
+      .where(isNotNull(serviceStandards.publishedAt))
+      .orderBy(desc(serviceStandards.publishedAt));
+    const standardAt = (at: Date) =>
+      standards.find((st) => st.publishedAt!.getTime() <= at.getTime())?.id ?? null;
+    const technicianOf = (row: ParsedImportRow) =>
+      row.technicianEmail ? (prepared.technicians.get(row.technicianEmail) ?? null) : null;
 
-      const technicianOf = (row: ParsedImportRow) =>
-        row.technicianEmail ? (prepared.technicians.get(row.technicianEmail) ?? null) : null;
-      const jobRows = rows.map((row, i) => {
+    for (let from = 0; from < total; from += JOB_CHUNK) {
+      const to = Math.min(from + JOB_CHUNK, total);
+      const part = rows.slice(from, to);
+      const jobRows = part.map((row, k) => {
+        const i = from + k;
         const customerId = customerOf(row);
         const turnaround = turnarounds[i];
         return {
@@ -259,43 +280,51 @@ export async function runImport(
           externalRef: row.externalRef,
         } satisfies typeof jobs.$inferInsert;
       });
-      const inserted = await bulkInsert<{ id: number; external_ref: string }>(tx, jobs, jobRows, {
-        chunk: 2500,
-        returning: 'id, external_ref',
-        onChunk: (done) =>
-          progress({ step: 'jobs', fraction: 0.12 + (0.48 * done) / total, done, total }),
+      await chunk(async (tx) => {
+        const inserted = await bulkInsert<{ id: number; external_ref: string }>(tx, jobs, jobRows, {
+          chunk: JOB_CHUNK,
+          returning: 'id, external_ref',
+        });
+        const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
+        const eventRows: NewJobEvent[] = [];
+        const sessionRows: (typeof benchSessions.$inferInsert)[] = [];
+        part.forEach((row, k) => {
+          const jobId = jobIdOf.get(row.externalRef)!;
+          for (const e of timelines[from + k]!) eventRows.push({ jobId, ...e, userId: null, note });
+          const technicianId = technicianOf(row);
+          if (row.benchMinutes !== null && technicianId !== null) {
+            sessionRows.push({ jobId, technicianId, minutes: row.benchMinutes, note });
+          }
+        });
+        await bulkInsert(tx, jobEvents, eventRows, { chunk: 10_000 });
+        await bulkInsert(tx, benchSessions, sessionRows, { chunk: 10_000 });
       });
-      const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
+      await progress({ step: 'jobs', fraction: 0.12 + (0.85 * to) / total, done: to, total });
+    }
 
-      const eventRows: NewJobEvent[] = [];
-      const sessionRows: (typeof benchSessions.$inferInsert)[] = [];
-      rows.forEach((row, i) => {
-        const jobId = jobIdOf.get(row.externalRef)!;
-        for (const e of timelines[i]!) eventRows.push({ jobId, ...e, userId: null, note });
-        const technicianId = technicianOf(row);
-        if (row.benchMinutes !== null && technicianId !== null) {
-          sessionRows.push({ jobId, technicianId, minutes: row.benchMinutes, note });
-        }
-      });
-      await bulkInsert(tx, jobEvents, eventRows, {
-        chunk: 10_000,
-        onChunk: (written) =>
-          progress({
-            step: 'timeline',
-            fraction: 0.6 + (0.37 * written) / eventRows.length,
-            done: total,
-            total,
-          }),
-      });
-      await bulkInsert(tx, benchSessions, sessionRows, {
-        chunk: 10_000,
-        onChunk: () => yieldToEventLoop(),
-      });
-
-      const seconds = (performance.now() - started) / 1000;
+    // Existing reels serviced later than their record says, and the batch: one last
+    // transaction, so that a failure before it leaves nobody's records changed.
+    const updates = knownReels
+      .map((r) => [r.id, servicedOn.get(reelKey(r.customerId, r)), r.lastServicedOn] as const)
+      .filter((u): u is [number, string, string | null] => !!u[1] && (!u[2] || u[2] < u[1]));
+    const seconds = (performance.now() - started) / 1000;
+    await conn.transaction(async (tx) => {
+      if (updates.length) {
+        await tx.execute(
+          sql`update ${reels} set last_serviced_on = v.day
+              from unnest(${sql.param(updates.map(([id]) => String(id)))}::text[]::integer[],
+                          ${sql.param(updates.map(([, day]) => day))}::text[]::date[]) as v(id, day)
+              where ${reels.id} = v.id`,
+        );
+      }
       await tx
         .update(importBatches)
-        .set({ status: 'imported', importedCount: total, completedAt: new Date() })
+        .set({
+          status: 'imported',
+          importedCount: total,
+          completedAt: new Date(),
+          heartbeatAt: null,
+        })
         .where(eq(importBatches.id, batchId));
       await tx.insert(activityLog).values({
         userId: principal.id,
@@ -303,27 +332,23 @@ export async function runImport(
         entityType: 'import_batch',
         entityId: batchId,
         shopId: shop.id,
-        after: {
-          fileName: file.fileName,
-          jobs: total,
-          customersCreated: createdCustomers.length,
-          reelsCreated: createdReels.length,
-        },
+        after: { fileName: file.fileName, jobs: total, customersCreated, reelsCreated },
       });
-      return {
-        batchId,
-        fileName: file.fileName,
-        imported: total,
-        customersCreated: createdCustomers.length,
-        reelsCreated: createdReels.length,
-        seconds: Math.round(seconds * 100) / 100,
-      };
     });
     await refreshAfterBulkLoad(conn);
-    return summary;
+    return {
+      batchId,
+      fileName: file.fileName,
+      imported: total,
+      customersCreated,
+      reelsCreated,
+      seconds: Math.round(seconds * 100) / 100,
+    };
   } catch (error) {
+    const duplicate = pgError(error)?.code === '23505';
+    await takeBack(batchId, duplicate ? 'Imported meanwhile by another upload' : 'Storing failed');
     // Another import of the same file finished first: the partial unique index says so.
-    if (pgError(error)?.code === '23505') {
+    if (duplicate) {
       await refuseDuplicate(shop.id, prepared.digest, file.fileName);
       throw conflict(
         'Some of these jobs were imported meanwhile; nothing was imported. Try again.',
@@ -331,6 +356,72 @@ export async function runImport(
     }
     throw error;
   }
+}
+
+function slices<T>(items: readonly T[], size: number): T[][] {
+  const out: T[][] = [];
+  for (let i = 0; i < items.length; i += size) out.push(items.slice(i, i + size));
+  return out;
+}
+
+/**
+ * Takes an import's rows back out, a chunk of jobs at a time (their timeline and bench time go
+ * with them), then the reels and customers it created, and marks the batch failed with `reason`.
+ * A row someone has meanwhile tied to other records stays, and the log says so.
+ */
+async function takeBack(batchId: number, reason: string) {
+  const conn = await db();
+  try {
+    for (;;) {
+      const { rows } = await conn.execute<{ id: number }>(
+        sql`delete from ${jobs} where ${jobs.id} in (
+              select ${jobs.id} from ${jobs} where ${jobs.importBatchId} = ${batchId} limit ${JOB_CHUNK})
+            returning ${jobs.id}`,
+      );
+      if (rows.length === 0) break;
+      await yieldToEventLoop();
+    }
+    await conn.delete(reels).where(eq(reels.importBatchId, batchId));
+    await conn.delete(customers).where(eq(customers.importBatchId, batchId));
+  } catch (error) {
+    console.error(`[import] taking back import #${batchId} left rows behind:`, error);
+  }
+  await conn
+    .update(importBatches)
+    .set({
+      status: 'failed',
+      importedCount: 0,
+      heartbeatAt: null,
+      completedAt: new Date(),
+      errors: [{ row: 0, message: `${reason}; nothing was kept.` }],
+    })
+    .where(eq(importBatches.id, batchId));
+}
+
+/**
+ * Imports cut off part-way (the server stopped while one ran) are taken back: with a PostgreSQL
+ * server, those whose heartbeat stopped; at start-up on the embedded database, every one, since
+ * nothing else can be writing it. Returns how many were taken back.
+ */
+export async function takeBackAbandonedImports(options: { all?: boolean } = {}): Promise<number> {
+  const conn = await db();
+  const cutoff = new Date(Date.now() - ABANDONED_AFTER_MS);
+  const abandoned = await conn
+    .select({ id: importBatches.id })
+    .from(importBatches)
+    .where(
+      and(
+        eq(importBatches.status, 'importing'),
+        options.all
+          ? undefined
+          : or(isNull(importBatches.heartbeatAt), lt(importBatches.heartbeatAt, cutoff)),
+      ),
+    );
+  for (const { id } of abandoned) {
+    console.warn(`[import] import #${id} was cut off part-way; taking its rows back out`);
+    await takeBack(id, 'The server stopped during the import');
+  }
+  return abandoned.length;
 }
 
 /**

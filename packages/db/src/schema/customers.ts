@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm';
 import { boolean, check, date, index, integer, pgTable, text } from 'drizzle-orm/pg-core';
 import { createdAt, id } from './columns';
 import { reelKind, useProfile, waterType } from './enums';
+import { importBatches } from './imports';
 import { shops } from './shops';
 
 export const customers = pgTable(
@@ -17,10 +18,15 @@ export const customers = pgTable(
     email: text('email'),
     /** Agreed to pre-season service reminders by e-mail. */
     reminderConsent: boolean('reminder_consent').notNull().default(false),
+    /** The CSV import that created this customer, so a failed import can take it back. */
+    importBatchId: integer('import_batch_id').references(() => importBatches.id),
     createdAt: createdAt(),
   },
   (t) => [
     index('customers_shop_id_name_idx').on(t.shopId, t.name),
+    index('customers_import_batch_id_idx')
+      .on(t.importBatchId)
+      .where(sql`${t.importBatchId} is not null`),
     index('customers_email_idx').on(t.email),
     index('customers_phone_idx').on(t.phone),
   ],
@@ -48,10 +54,15 @@ export const reels = pgTable(
     serialNumber: text('serial_number'),
     /** Local date of the last completed service; drives service-due reminders. */
     lastServicedOn: date('last_serviced_on', { mode: 'string' }),
+    /** The CSV import that created this reel, so a failed import can take it back. */
+    importBatchId: integer('import_batch_id').references(() => importBatches.id),
     createdAt: createdAt(),
   },
   (t) => [
     index('reels_customer_id_idx').on(t.customerId),
+    index('reels_import_batch_id_idx')
+      .on(t.importBatchId)
+      .where(sql`${t.importBatchId} is not null`),
     index('reels_last_serviced_on_idx').on(t.lastServicedOn),
     check('reels_bearing_count_nonnegative', sql`${t.bearingCount} >= 0`),
   ],

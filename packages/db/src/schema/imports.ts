@@ -32,6 +32,11 @@ export const importBatches = pgTable(
     columnMap: jsonb('column_map').$type<Record<string, string>>(),
     createdById: integer('created_by_id').references(() => users.id),
     createdAt: createdAt(),
+    /**
+     * While importing: refreshed with every committed chunk. An import whose heartbeat has
+     * stopped was cut off (a crash) and is taken back by the next import or start-up.
+     */
+    heartbeatAt: instant('heartbeat_at'),
     completedAt: instant('completed_at'),
   },
   (t) => [

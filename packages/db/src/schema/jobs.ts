@@ -86,6 +86,9 @@ export const jobs = pgTable(
     index('jobs_customer_id_idx').on(t.customerId),
     index('jobs_technician_id_idx').on(t.technicianId),
     index('jobs_comeback_of_job_id_idx').on(t.comebackOfJobId),
+    index('jobs_import_batch_id_idx')
+      .on(t.importBatchId)
+      .where(sql`${t.importBatchId} is not null`),
     uniqueIndex('jobs_shop_external_ref_uq').on(t.shopId, t.externalRef),
     check(
       'jobs_money_nonnegative',
