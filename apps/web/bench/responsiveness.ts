@@ -185,11 +185,9 @@ const IMPORTED_TABLES = ['customers', 'reels', 'jobs', 'job_events', 'bench_sess
 
 function importedRows(batchId: number): Record<(typeof IMPORTED_TABLES)[number], string> {
   const jobs = `select id from jobs where import_batch_id = ${batchId}`;
-  // Customers and reels the import created: its jobs' own, created in its transaction.
-  const since = `created_at >= (select created_at from import_batches where id = ${batchId})`;
   return {
-    customers: `id in (select customer_id from jobs where import_batch_id = ${batchId}) and ${since}`,
-    reels: `id in (select reel_id from jobs where import_batch_id = ${batchId}) and ${since}`,
+    customers: `import_batch_id = ${batchId}`,
+    reels: `import_batch_id = ${batchId}`,
     jobs: `import_batch_id = ${batchId}`,
     job_events: `job_id in (${jobs})`,
     bench_sessions: `job_id in (${jobs})`,

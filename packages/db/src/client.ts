@@ -134,7 +134,16 @@ async function openIsolatedPglite(dataDir: string): Promise<DbHandle> {
       import('drizzle-orm/node-postgres'),
     ]);
     // The socket file is `<host>/.s.PGSQL.<port>`, as a PostgreSQL server's.
-    const pool = new pg.Pool({ host: socketDir, port: SOCKET_PORT, user: 'postgres', max: 1 });
+    const pool = new pg.Pool({
+      host: socketDir,
+      port: SOCKET_PORT,
+      user: 'postgres',
+      max: 1,
+      // The one connection stays open; a caller waiting a minute for it has found a bug (a query
+      // sent outside a transaction that is waiting for it) and gets an error, not a hang.
+      idleTimeoutMillis: 0,
+      connectionTimeoutMillis: 60_000,
+    });
     pool.on('error', (error) => console.error('[db] embedded database connection:', error.message));
     const db = drizzle({ client: pool, schema }) as unknown as Db;
     const running = worker;
