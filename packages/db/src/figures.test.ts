@@ -209,6 +209,27 @@ describe(`derived monthly figures (${TARGET})`, () => {
     },
   );
 
+  it('wait, in a transaction that defers them, until the months are recomputed (bulk loads)', async () => {
+    const before = await storedMonths(db);
+    await db.transaction(async (tx) => {
+      await tx.execute(sql`set local reelwright.defer_figures = 'on'`);
+      await tx.execute(sql`
+        insert into jobs (id, shop_id, customer_id, reel_id, service_type, state, checked_in_at,
+          ready_at, labour_cents, parts_cents, discount_cents, customer_turnaround_minutes,
+          bench_turnaround_minutes)
+        values (6, 1, 1, 1, 'overhaul', 'ready', '2026-07-01T14:00Z', '2026-07-03T15:00Z',
+          4000, 0, 0, 1500, 1500)`);
+    });
+    // Deferred: July has no row yet, and nothing else changed.
+    expect(await storedMonths(db)).toEqual(before);
+    // The setting was the transaction's own: the next write is followed again.
+    await db.execute(sql`update jobs set labour_cents = 4100 where id = 1`);
+    await db.execute(
+      sql`select refresh_shop_month_figures(array[1], array['2026-07-03T15:00Z'::timestamptz])`,
+    );
+    await agree();
+  });
+
   it('refuses a turnaround too long for the figures’ seven digits', async () => {
     const error: unknown = await db
       .execute(sql`update jobs set customer_turnaround_minutes = 10000000 where id = 1`)

@@ -148,7 +148,7 @@ describe('CSV import of past jobs', () => {
     expect(rows[0]!.pages).toBeGreaterThan(10);
     expect(rows[0]!.visible).toBe(rows[0]!.pages);
     expect(rows[0]!.estimate).toBe(3000);
-    // The monthly figures the network view reads were kept up by the triggers during the load.
+    // The monthly figures the network view reads were recomputed for the months the load touched.
     const { rows: months } = await db().execute<{ ready: number; jobs: number }>(
       sql`select (select sum(jobs_ready)::int from shop_month_figures) as ready,
         (select count(*)::int from jobs where ready_at is not null) as jobs`,

@@ -59,9 +59,12 @@ const reelKey = (
   `${customerId}|${r.kind}|${r.maker.toLowerCase()}|${r.model.toLowerCase()}|${(r.size ?? '').toLowerCase()}`;
 
 /** Customers or reels per transaction. */
-const ROW_CHUNK = 2_500;
-/** Jobs per transaction, each with its timeline and bench time (about five rows a job). */
-const JOB_CHUNK = 1_000;
+const ROW_CHUNK = 1_000;
+/** Jobs per transaction, each with its timeline and bench time (about five rows a job): a chunk
+ * takes tens of milliseconds, so a request waiting behind one is not held up for long. */
+const JOB_CHUNK = 250;
+/** Shop-months of figures recomputed per transaction after the jobs are in. */
+const FIGURE_MONTHS_CHUNK = 3;
 /** An import whose heartbeat is older than this was cut off (a chunk commits within seconds). */
 export const ABANDONED_AFTER_MS = 2 * 60_000;
 
@@ -69,8 +72,10 @@ export const ABANDONED_AFTER_MS = 2 * 60_000;
  * Writes a prepared import in short transactions, so that other users' requests are answered
  * between them: the batch first (status `importing`), then customers and reels, then jobs a
  * thousand at a time with their timeline, bench time and business-time turnaround, each chunk
- * refreshing the batch's heartbeat; a last transaction brings existing reels' last service up to
- * date and marks the batch imported. While it runs, the jobs written so far are visible. Any
+ * refreshing the batch's heartbeat; then the monthly figures of the months it touched are
+ * recomputed (the trigger is deferred for the chunks: one recompute instead of one a chunk), and a
+ * last transaction brings existing reels' last service up to date and marks the batch imported.
+ * While it runs, the jobs written so far are visible, and counted in the figures at the end. Any
  * failure takes the batch's rows back out and marks it failed; an import cut off by a crash is
  * taken back the same way by the next import or start-up (`takeBackAbandonedImports`).
  */
@@ -281,6 +286,8 @@ export async function runImport(
         } satisfies typeof jobs.$inferInsert;
       });
       await chunk(async (tx) => {
+        // The monthly figures are recomputed once, after the last chunk (below).
+        await tx.execute(sql`set local reelwright.defer_figures = 'on'`);
         const inserted = await bulkInsert<{ id: number; external_ref: string }>(tx, jobs, jobRows, {
           chunk: JOB_CHUNK,
           returning: 'id, external_ref',
@@ -300,6 +307,25 @@ export async function runImport(
         await bulkInsert(tx, benchSessions, sessionRows, { chunk: 10_000 });
       });
       await progress({ step: 'jobs', fraction: 0.12 + (0.85 * to) / total, done: to, total });
+    }
+
+    // The monthly figures of the months the jobs were ready or collected in, a few months a
+    // transaction, computed from the jobs table as the trigger would have.
+    const months = new Map<string, Date>();
+    for (const row of rows) {
+      for (const at of [row.readyAt, row.collectedAt]) {
+        if (at) months.set(localDate(at, shop.timeZone).slice(0, 7), at);
+      }
+    }
+    for (const group of slices([...months.values()], FIGURE_MONTHS_CHUNK)) {
+      await chunk((tx) =>
+        tx.execute(
+          sql`select refresh_shop_month_figures(
+                ${sql.param(group.map(() => String(shop.id)))}::text[]::integer[],
+                ${sql.param(group.map((at) => at.toISOString()))}::text[]::timestamptz[])`,
+        ),
+      );
+      await yieldToEventLoop();
     }
 
     // Existing reels serviced later than their record says, and the batch: one last
@@ -432,12 +458,15 @@ export async function takeBackAbandonedImports(options: { all?: boolean } = {}):
  * as a failed import.
  */
 async function refreshAfterBulkLoad(conn: Awaited<ReturnType<typeof db>>) {
-  try {
-    await conn.execute(
-      sql`vacuum (analyze) ${jobs}, ${jobEvents}, ${benchSessions}, ${customers}, ${reels}, ${shopMonthFigures}`,
-    );
-  } catch (error) {
-    console.warn('[import] refreshing statistics after the import failed:', error);
+  // A table at a time, so that other requests are answered between them.
+  for (const table of [jobs, jobEvents, benchSessions, customers, reels, shopMonthFigures]) {
+    try {
+      await conn.execute(sql`vacuum (analyze) ${table}`);
+    } catch (error) {
+      console.warn('[import] refreshing statistics after the import failed:', error);
+      return;
+    }
+    await yieldToEventLoop();
   }
 }
 
