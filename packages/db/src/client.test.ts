@@ -75,6 +75,31 @@ describe(`migrations (${TARGET})`, () => {
   });
 });
 
+describe(`migrations from several instances at once (${TARGET})`, () => {
+  // The embedded database belongs to one process (its folder lock); a server is shared.
+  it.runIf(TARGET === 'pg')(
+    'apply each migration once, however many start together',
+    async () => {
+      const first = await freshDb();
+      const others = await Promise.all([1, 2, 3].map(() => openDb({ url: first.url! })));
+      try {
+        const applied = await Promise.all(
+          [first, ...others].map((handle) => migrate(handle.db, handle.driver)),
+        );
+        expect(applied.sort()).toEqual([0, 0, 0, journaledMigrationCount()]);
+        const { rows } = await first.db.execute<{ n: number }>(
+          sql`select count(*)::int as n from drizzle.__drizzle_migrations`,
+        );
+        expect(rows[0]!.n).toBe(journaledMigrationCount());
+      } finally {
+        await Promise.all(others.map((handle) => handle.close()));
+        await first.close();
+      }
+    },
+    60_000,
+  );
+});
+
 describe('migrations folder', () => {
   it('is found from the module path, or taken from an explicit folder', () => {
     const dir = resolveMigrationsDir();

@@ -48,6 +48,8 @@ export interface OpenDbOptions {
 export interface DbHandle {
   db: Db;
   driver: Driver;
+  /** The postgres:// URL, for PostgreSQL. */
+  url?: string;
   /** The PGlite folder (absolute) or 'memory://'; undefined for PostgreSQL. */
   dataDir?: string;
   close(): Promise<void>;
@@ -74,6 +76,7 @@ async function openPg(url: string, max: number): Promise<DbHandle> {
   return {
     db,
     driver: 'pg',
+    url,
     async close() {
       if (closed) return;
       closed = true;
@@ -268,27 +271,47 @@ export async function appliedMigrationCount(db: Db): Promise<number> {
   return Number(rows[0]?.n ?? 0);
 }
 
-/** Applies the journaled migrations not yet applied, in one transaction; returns how many ran. */
+/** The advisory lock that lets one instance at a time migrate a PostgreSQL server. */
+const MIGRATION_LOCK = 20260303;
+
+/**
+ * Applies the journaled migrations not yet applied, in one transaction; returns how many ran. On
+ * a PostgreSQL server the run holds an advisory lock, so instances starting at once apply each
+ * migration once: the others wait, then find nothing left to apply. (The embedded database is
+ * held by one process, its folder lock says so.)
+ */
 export async function migrate(
   db: Db,
   driver: Driver,
   options: MigrateOptions = {},
 ): Promise<number> {
   const migrationsFolder = resolveMigrationsDir(options.migrationsFolder);
-  const before = await appliedMigrationCount(db);
   const config = {
     migrationsFolder,
     migrationsSchema: MIGRATIONS_SCHEMA,
     migrationsTable: MIGRATIONS_TABLE,
   };
-  if (driver === 'pglite') {
-    const { migrate: run } = await import('drizzle-orm/pglite/migrator');
-    await run(db as unknown as Parameters<typeof run>[0], config);
-  } else {
-    const { migrate: run } = await import('drizzle-orm/node-postgres/migrator');
-    await run(db as unknown as Parameters<typeof run>[0], config);
+  const run = async () => {
+    const before = await appliedMigrationCount(db);
+    if (driver === 'pglite') {
+      const { migrate: apply } = await import('drizzle-orm/pglite/migrator');
+      await apply(db as unknown as Parameters<typeof apply>[0], config);
+    } else {
+      const { migrate: apply } = await import('drizzle-orm/node-postgres/migrator');
+      await apply(db as unknown as Parameters<typeof apply>[0], config);
+    }
+    return (await appliedMigrationCount(db)) - before;
+  };
+  if (driver !== 'pg') return run();
+  const pool = (db as unknown as { $client: import('pg').Pool }).$client;
+  const holder = await pool.connect();
+  try {
+    await holder.query('select pg_advisory_lock($1)', [MIGRATION_LOCK]);
+    return await run();
+  } finally {
+    await holder.query('select pg_advisory_unlock($1)', [MIGRATION_LOCK]).catch(() => {});
+    holder.release();
   }
-  return (await appliedMigrationCount(db)) - before;
 }
 
 export function runMigrations(
