@@ -5,6 +5,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import os from 'node:os';
 import path from 'node:path';
+import type { Pool as PgPool } from 'pg';
 import { Worker } from 'node:worker_threads';
 import { lockDataDir, type FolderLock } from './lock';
 import { defaultDataDir, packageDir, resolveMigrationsDir } from './paths';
@@ -303,7 +304,7 @@ export async function migrate(
     return (await appliedMigrationCount(db)) - before;
   };
   if (driver !== 'pg') return run();
-  const pool = (db as unknown as { $client: import('pg').Pool }).$client;
+  const pool = (db as unknown as { $client: PgPool }).$client;
   const holder = await pool.connect();
   try {
     await holder.query('select pg_advisory_lock($1)', [MIGRATION_LOCK]);
