@@ -62,18 +62,6 @@ function parseCsv(text: string): string[][] {
   return rows;
 }
 
-/** "2026-Q2": the latest quarter ending at least 91 days before `now` (New York dates). */
-function latestFinalQuarter(now: Date) {
-  const today = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/New_York' }).format(now);
-  let [y, q] = [Number(today.slice(0, 4)), Math.floor((Number(today.slice(5, 7)) - 1) / 3)];
-  for (;;) {
-    if (q === 0) [y, q] = [y - 1, 4];
-    const end = Date.UTC(y, q * 3, 0);
-    if (end + 91 * 86_400_000 <= Date.parse(`${today}T00:00:00Z`)) return `${y}-Q${q}`;
-    q -= 1;
-  }
-}
-
 async function shoot(page: Page, name: string) {
   for (const [w, h] of [
     [1280, 900],
@@ -236,14 +224,14 @@ test.describe('network view', () => {
     }) => {
       await page.goto('/network');
       await expect(page.getByRole('heading', { level: 1, name: 'Network' })).toBeVisible();
-      // The default period is the latest quarter whose 90-day warranty windows have all closed.
-      await expect(page.getByLabel('Period')).toHaveValue('quarter');
-      await expect(page.getByLabel('Quarter')).toHaveValue(latestFinalQuarter(new Date()));
+      // The default period is the last whole month, and the page says why.
+      await expect(page.getByLabel('Period')).toHaveValue('month');
+      await expect(page.getByText(/^Showing \w{3} \d{4}, the last whole month\./)).toBeVisible();
       await expect(
-        page.getByRole('figure', { name: /Comeback rate against volume/ }),
+        page.getByRole('figure', {
+          name: /^Comebacks observed ÷ expected against comebacks expected/,
+        }),
       ).toBeVisible();
-      await expect(page.getByText(/^No audit rounds yet: this funnel appears/)).toBeVisible();
-      await expect(shopTable(page).getByRole('button', { name: 'No rounds yet' })).toHaveCount(7);
       // Charts draw once the page has hydrated; the explanations need it too.
       await expect(page.locator('.recharts-surface').first()).toBeVisible();
       // Explanations show on keyboard focus as well as on hover.

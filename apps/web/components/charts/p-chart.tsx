@@ -3,6 +3,7 @@
 import {
   CartesianGrid,
   ComposedChart,
+  ErrorBar,
   Line,
   ResponsiveContainer,
   Tooltip,
@@ -20,6 +21,8 @@ export interface PChartDatum {
   signal: 'above' | 'below' | null;
   /** A month whose figures are not final yet: drawn as a hollow ring. */
   provisional?: boolean;
+  /** The rate's 95% interval, drawn as a whisker. */
+  interval?: { lower: number; upper: number } | null;
 }
 
 /** The 3-sigma limits change with each month's volume, so they are drawn as steps. */
@@ -30,24 +33,37 @@ export const P_CHART_COLOURS = {
   centre: '#475569',
   limit: '#853223',
   signal: '#a03c28',
+  interval: '#5b8a82',
 };
 
 /**
- * A p-chart: the monthly rate, its centre line, and the 3-sigma limits for each month's own
- * volume (drawn as steps). Months outside the limits are drawn as larger brick-red diamonds;
- * months not final yet as hollow rings.
+ * A p-chart: the monthly rate with its 95% interval as a whisker, its centre line, and the
+ * 3-sigma limits for each month's own volume (drawn as steps, only where a month has them).
+ * Months outside the limits are drawn as larger brick-red diamonds; months not final yet as
+ * hollow rings.
  */
 export function PChart(props: {
   points: PChartDatum[];
-  center: number;
+  center: number | null;
   formatLabel: (label: string) => string;
   height?: number;
 }) {
-  const data = props.points.map((p) => ({ ...p, center: props.center }));
+  const data = props.points.map((p) => ({
+    ...p,
+    center: props.center,
+    spread:
+      p.rate === null || !p.interval
+        ? null
+        : [Math.max(0, p.rate - p.interval.lower), Math.max(0, p.interval.upper - p.rate)],
+  }));
   const ticks = niceTicks(
     Math.min(
       1,
-      Math.max(props.center * 2, ...data.map((d) => Math.max(d.rate ?? 0, d.upper ?? 0))),
+      Math.max(
+        (props.center ?? 0) * 2,
+        0.01,
+        ...data.map((d) => Math.max(d.rate ?? 0, d.upper ?? 0, d.interval?.upper ?? 0)),
+      ),
     ),
     4,
   );
@@ -80,7 +96,9 @@ export function PChart(props: {
           />
           <Line {...guideLine('upper', 'Upper limit', P_CHART_COLOURS.limit, limit)} />
           <Line {...guideLine('lower', 'Lower limit', P_CHART_COLOURS.limit, limit)} />
-          <Line {...guideLine('center', 'Centre line', P_CHART_COLOURS.centre)} />
+          {props.center !== null && (
+            <Line {...guideLine('center', 'Centre line', P_CHART_COLOURS.centre)} />
+          )}
           <Line
             dataKey="rate"
             name="Comeback rate"
@@ -115,7 +133,15 @@ export function PChart(props: {
                 );
               return <circle key={key} cx={p.cx} cy={p.cy} r={3} fill={P_CHART_COLOURS.rate} />;
             }}
-          />
+          >
+            <ErrorBar
+              dataKey="spread"
+              direction="y"
+              width={5}
+              strokeWidth={1.25}
+              stroke={P_CHART_COLOURS.interval}
+            />
+          </Line>
         </ComposedChart>
       </ResponsiveContainer>
     </div>

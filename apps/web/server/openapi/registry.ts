@@ -610,7 +610,8 @@ export const ROUTES: readonly RouteSpec[] = [
   {
     method: 'get',
     path: '/api/network/trends',
-    summary: 'Monthly comeback p-chart, turnaround or revenue per bench hour for every shop',
+    summary:
+      'Monthly comeback estimates (95% interval; p-chart limits on final months), turnaround or revenue per bench hour for every shop',
     permission: 'network:read',
     query: networkTrendsQuery,
     status: 200,
@@ -751,7 +752,8 @@ export const ROUTES: readonly RouteSpec[] = [
   {
     method: 'get',
     path: '/api/shops/{id}/trends',
-    summary: "One shop's monthly comeback p-chart, turnaround or revenue per bench hour",
+    summary:
+      "One shop's monthly comeback estimates (95% interval; p-chart limits on final months), turnaround or revenue per bench hour",
     permission: 'shops:read',
     params: idParams,
     query: shopTrendsQuery,

@@ -54,6 +54,10 @@ export interface ShopDef {
   dragSkip: number;
   /** Chance that a collected job comes back for a counted reason (workmanship, part failure). */
   comebackCounted: number;
+  /** Median days from collection to a counted return (other than an unserviced drag stack). */
+  returnMedianDays: number;
+  /** Median days the shop lead takes to review a comeback. */
+  reviewMedianDays: number;
 }
 
 const lunch = (open: string, close: string) => [
@@ -94,6 +98,8 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 700,
     dragSkip: 0.02,
     comebackCounted: 0.04,
+    returnMedianDays: 20,
+    reviewMedianDays: 2.5,
   },
   {
     slug: 'marram-point',
@@ -132,6 +138,8 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 650,
     dragSkip: 0.02,
     comebackCounted: 0.038,
+    returnMedianDays: 20,
+    reviewMedianDays: 2.5,
   },
   {
     slug: 'skerry-wharf',
@@ -165,6 +173,8 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 2900,
     dragSkip: 0.02,
     comebackCounted: 0.042,
+    returnMedianDays: 20,
+    reviewMedianDays: 2.5,
   },
   {
     slug: 'ternhollow-lake',
@@ -202,7 +212,10 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 800,
     dragSkip: 0.03,
     // Comebacks are placed by quota per quarter (see simulate.ts), not by this chance.
-    comebackCounted: 0.115,
+    comebackCounted: 0.105,
+    // Lake anglers fish the next weekend, and the lead is at the bench every open day.
+    returnMedianDays: 7,
+    reviewMedianDays: 1,
   },
   {
     slug: 'fennel-cove',
@@ -235,6 +248,8 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 650,
     dragSkip: 0.02,
     comebackCounted: 0.039,
+    returnMedianDays: 20,
+    reviewMedianDays: 2.5,
   },
   {
     slug: 'lantern-inlet',
@@ -282,6 +297,8 @@ export const SHOPS: readonly ShopDef[] = [
     waitMedian: 700,
     dragSkip: 0.02,
     comebackCounted: 0.043,
+    returnMedianDays: 20,
+    reviewMedianDays: 2.5,
   },
   {
     slug: 'brackwater-flats',
@@ -315,6 +332,8 @@ export const SHOPS: readonly ShopDef[] = [
     // Skips drag-stack steps, and its comebacks trace back to them.
     dragSkip: 0.42,
     comebackCounted: 0.035,
+    returnMedianDays: 20,
+    reviewMedianDays: 4,
   },
 ];
 

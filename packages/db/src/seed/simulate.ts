@@ -182,6 +182,10 @@ const DISMISS_REASONS = [
   'Not the same fault: new damage from a drop.',
 ];
 const UNCOUNTED_CHANCE = 0.012;
+/** Median days from collection to the return of a reel whose drag stack was not serviced. */
+const DRAG_RETURN_DAYS = 5;
+/** Chance that a reel whose drag stack was skipped comes back for workmanship. */
+const DRAG_COMEBACK_CHANCE = 0.19;
 
 function clamp(x: number, lo: number, hi: number): number {
   return Math.min(hi, Math.max(lo, x));
@@ -689,13 +693,22 @@ export function generate(options: GenerateOptions): SeedData {
       counted = job.shop.quotaCredit >= 1;
       if (counted) job.shop.quotaCredit -= 1;
     } else if (def.slug === 'brackwater-flats') {
-      counted = rng.chance(job.skipped.has('drag.washers') ? 0.19 : def.comebackCounted);
+      counted = rng.chance(
+        job.skipped.has('drag.washers') ? DRAG_COMEBACK_CHANCE : def.comebackCounted,
+      );
     } else {
       counted = rng.chance(def.comebackCounted);
     }
     const uncounted = !counted && rng.chance(UNCOUNTED_CHANCE);
     if (!counted && !uncounted) return;
-    const days = Math.round(clamp(rng.logNormal(counted ? 20 : 35, 0.7), 2, 88));
+    // A drag stack left dry and glazed slips on the first hard run, so those reels come back
+    // within days; other faults show over weeks.
+    const median = !counted
+      ? 35
+      : job.skipped.has('drag.washers')
+        ? DRAG_RETURN_DAYS
+        : def.returnMedianDays;
+    const days = Math.round(clamp(rng.logNormal(median, 0.7), 2, 88));
     const region = shops.filter(
       (s) => s.regionId === job.shop.regionId && s !== job.shop && s.def.jobsPerTwoYears > 1000,
     );
@@ -836,9 +849,13 @@ export function generate(options: GenerateOptions): SeedData {
     const cb = job.comeback;
     if (cb) {
       const original = cb.original;
+      // Leads review within the network's seven-day deadline, a few late ones aside.
       const lag =
-        clamp(rng.logNormal(original.shop.def.slug === 'brackwater-flats' ? 6 : 3, 0.7), 0.2, 40) *
-        DAY;
+        clamp(
+          rng.logNormal(original.shop.def.reviewMedianDays, 0.7),
+          0.2,
+          rng.chance(0.05) ? 40 : 7,
+        ) * DAY;
       const reviewedAt = cb.detectedAt + lag <= nowMs ? cb.detectedAt + lag : null;
       let status: 'open' | 'confirmed' | 'dismissed' = 'open';
       let attribution: ComebackAttribution | null = null;

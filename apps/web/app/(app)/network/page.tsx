@@ -11,6 +11,7 @@ import { requirePagePrincipal } from '~/server/session';
 import { NetworkView } from './_components/network-view';
 import {
   formatPeriod,
+  lastWholeMonth,
   latestFinalQuarter,
   readViewParams,
   todayIn,
@@ -28,7 +29,20 @@ export default async function NetworkPage(props: {
   const asOf = new Date();
   const today = todayIn('America/New_York', asOf);
   const { warrantyDays } = await networkSettingsUsed();
-  const view = readViewParams(await props.searchParams, latestFinalQuarter(today, warrantyDays));
+  const search = await props.searchParams;
+  // The last whole month: the latest with all its work in, judged by O/E while windows are open.
+  const view = readViewParams(search, lastWholeMonth(today));
+  const finalQuarter = latestFinalQuarter(today, warrantyDays);
+  const defaultShown =
+    search.from === undefined && search.to === undefined
+      ? {
+          finalQuarter: {
+            from: finalQuarter.from,
+            to: finalQuarter.to,
+            label: `Q${(Number(finalQuarter.from.slice(5, 7)) + 2) / 3} ${finalQuarter.from.slice(0, 4)}`,
+          },
+        }
+      : undefined;
   const params = { from: view.from, to: view.to, region: view.region };
   const trendParams = { ...trendWindow(params), region: view.region };
   const queryClient = new QueryClient();
@@ -58,6 +72,7 @@ export default async function NetworkPage(props: {
             trendParams={trendParams}
             today={today}
             invalid={view.invalid}
+            defaultShown={defaultShown}
           />
         </HydrationBoundary>
       </>

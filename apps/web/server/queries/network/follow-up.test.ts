@@ -21,7 +21,7 @@ import {
 } from '@reelwright/metrics';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Principal } from '../../principal';
-import { networkComparison, shopMetrics } from '../network';
+import { networkComparison, networkTrends, shopMetrics } from '../network';
 import { followUpTables } from './follow-up';
 import { monthsBefore, referencePeriod } from './reference';
 
@@ -326,5 +326,51 @@ describe(`comeback follow-up (${TARGET})`, () => {
       shopMetrics(owner, ids.a, period, { db: db(), asOf }),
     ]);
     expect(page.figures.comebacks).toEqual(net.shops.find((s) => s.shop.id === ids.a)!.comebacks);
+  });
+
+  it('owner – the monthly trend shows each month as the comparison estimates it, final or not', async () => {
+    const asOf = new Date('2026-05-15T12:00:00Z');
+    const ctx = { db: db(), asOf, referenceCache: false };
+    const trend = await networkTrends(
+      owner,
+      { from: '2025-05-01', to: '2026-04-30', metric: 'comebacks' },
+      ctx,
+    );
+    if (trend.metric !== 'comebacks') throw new Error('wrong metric');
+    expect(trend.warrantyDays).toBe(W);
+    for (const label of ['2025-06', '2025-09', '2026-04']) {
+      const [y, m] = label.split('-').map(Number) as [number, number];
+      const last = new Date(Date.UTC(y, m, 0)).getUTCDate();
+      const month = await networkComparison(
+        owner,
+        { from: `${label}-01`, to: `${label}-${last}` },
+        ctx,
+      );
+      for (const s of month.shops.filter((x) => x.comebacks.collected > 0)) {
+        const point = trend.shops
+          .find((t) => t.shop.id === s.shop.id)!
+          .points.find((p) => p.label === label)!;
+        const e = s.comebacks.estimate;
+        expect(point, `${s.shop.name} ${label}`).toMatchObject({
+          trials: e.jobs,
+          events: e.events,
+          stillFollowed: e.stillFollowed,
+          method: e.method,
+          provisional: !e.final,
+        });
+        expect(point.rate).toBeCloseTo(e.probability!, 12);
+        expect(point.interval!.lower).toBeCloseTo(e.interval!.lower, 12);
+        expect(point.interval!.upper).toBeCloseTo(e.interval!.upper, 12);
+        // Limits and signals only where the month is final.
+        if (e.final) expect(point.upper).not.toBeNull();
+        else expect(point).toMatchObject({ lower: null, upper: null, signal: null });
+      }
+    }
+    const alder = trend.shops.find((t) => t.shop.id === ids.a)!;
+    expect(alder.points.find((p) => p.label === '2026-04')).toMatchObject({
+      provisional: true,
+      method: 'network × ratio',
+    });
+    expect(alder.points.find((p) => p.label === '2025-06')!.provisional).toBe(false);
   });
 });

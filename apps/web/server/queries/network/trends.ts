@@ -1,10 +1,14 @@
 import { sql, type Db } from '@reelwright/db';
 import {
+  comebackEstimate,
   pChart,
-  pChartLimits,
   rateRealisation,
   revenuePerBenchHour,
+  tableTotals,
+  type ComebackEstimate,
+  type ComebackReference,
   type PChartPoint,
+  type SurvivalTable,
 } from '@reelwright/metrics';
 import type {
   NetworkTrendsQuery,
@@ -22,7 +26,9 @@ import {
   type NetworkShop,
   type QueryContext,
 } from './context';
-import type { MonthlyComebackPoint, TrendsResult } from './types';
+import { emptyTable, followUpTables } from './follow-up';
+import { loadReference } from './reference';
+import type { MonthlyComebackPoint, MonthlyComebacks, TrendsResult } from './types';
 
 /** "YYYY-MM" labels of every month the period touches, in order. */
 export function monthsOf(period: PeriodQuery): string[] {
@@ -51,61 +57,11 @@ type Row = Record<string, string | number | null>;
 
 async function monthlyRows(
   conn: Db,
-  metric: TrendMetric,
+  metric: Exclude<TrendMetric, 'comebacks'>,
   ids: readonly number[],
   period: PeriodQuery,
-  asOf: Date,
 ): Promise<Row[]> {
   if (ids.length === 0) return [];
-  if (metric === 'comebacks') {
-    const settings = await loadSettings(conn);
-    const at = asOf.toISOString();
-    const hours = settings.warrantyDays * 24;
-    const counted = `{${settings.countedAttributions.join(',')}}`;
-    const closed = sql`j.collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz`;
-    const month = sql`to_char(j.collected_at at time zone s.time_zone, 'YYYY-MM')`;
-    // The same for a comeback, from the original job's collection time it carries.
-    const backClosed = sql`cb.original_collected_at + ${hours} * interval '1 hour' <= ${at}::timestamptz`;
-    const backMonth = sql`to_char(cb.original_collected_at at time zone s.time_zone, 'YYYY-MM')`;
-    // As in the comparison: closed windows counted over the index, returns from the comebacks'
-    // own index (no join to the jobs).
-    const { rows } = await conn.execute<Row>(sql`
-      with s as (${bounds(ids, period)})
-      select s.id as "shopId", m.month, m.trials, m.events, m.open
-      from s
-      cross join lateral (
-        select c.month, (c.closed + coalesce(b.open_came_back, 0))::int as trials,
-          coalesce(b.events, 0)::int as events, (c.collected - c.closed)::int as open
-        from (
-          select ${month} as month, count(*) filter (where ${closed}) as closed,
-            count(*) as collected
-          from jobs j
-          where j.shop_id = s.id and j.collected_at >= s.t0 and j.collected_at < s.t1
-            and j.collected_at <= ${at}::timestamptz
-          group by 1
-        ) c
-        left join (
-          select k.month,
-            count(*) filter (where k.came_back and not k.closed) as open_came_back,
-            count(*) filter (where k.counted) as events
-          from (
-            select ${backMonth} as month, ${backClosed} as closed,
-              bool_or(cb.status = 'confirmed') as came_back,
-              bool_or(cb.status = 'confirmed'
-                and cb.attribution = any(${counted}::comeback_attribution[])) as counted
-            from comebacks cb
-            where cb.original_shop_id = s.id
-              and cb.original_collected_at >= s.t0 and cb.original_collected_at < s.t1
-              and cb.detected_at >= cb.original_collected_at
-              and cb.detected_at < cb.original_collected_at + ${hours} * interval '1 hour'
-              and cb.detected_at <= ${at}::timestamptz
-            group by cb.original_job_id, cb.original_collected_at
-          ) k
-          group by k.month
-        ) b on b.month = c.month
-      ) m`);
-    return rows;
-  }
   if (metric === 'turnaround') {
     const { rows } = await conn.execute<Row>(sql`
       with s as (${bounds(ids, period)})
@@ -142,34 +98,126 @@ async function monthlyRows(
 
 const num = (v: string | number | null | undefined) => (v == null ? null : Number(v));
 
+/** One month of the trend with its follow-up figures (`comebackEstimate`). */
+export interface MonthEstimate {
+  label: string;
+  estimate: ComebackEstimate;
+}
+
 /**
- * A p-chart in which months with warranty windows still open are provisional: their rate counts
- * returns but not yet the jobs that will stay away, so it reads high. The centre line comes from
- * the final months only, and a provisional month is drawn against its limits but never signals.
+ * A shop's months: each its comeback estimate with its 95% interval. A month in which no job is
+ * still being followed is final (the estimate is events ÷ jobs) and joins a p-chart around the
+ * shop's own rate over its final months, with 3-sigma limits for its volume. A month with jobs
+ * still inside their window is an estimate: drawn with its own interval, never given limits or a
+ * signal, since limits for its whole volume would be narrower than its follow-up supports.
  */
-export function provisionalPChart(months: readonly (PChartPoint & { open: number })[]): {
+export function comebackTrendPoints(months: readonly MonthEstimate[]): {
   center: number | null;
   points: MonthlyComebackPoint[];
 } {
-  const final = months.filter((m) => m.open === 0);
-  const chart = pChart(final);
+  const row = (m: MonthEstimate): PChartPoint => ({
+    label: m.label,
+    events: m.estimate.events,
+    trials: m.estimate.jobs,
+  });
+  const chart = pChart(months.filter((m) => m.estimate.final).map(row));
   const byLabel = new Map(chart.points.map((p) => [p.label, p]));
   return {
     center: chart.center,
-    points: months.map((m) => {
-      const done = byLabel.get(m.label);
-      if (done) return { ...done, open: 0, provisional: false };
-      const limits =
-        chart.center === null || m.trials === 0 ? null : pChartLimits(chart.center, m.trials);
+    points: months.map(({ label, estimate: e }): MonthlyComebackPoint => {
+      const base = {
+        label,
+        events: e.events,
+        trials: e.jobs,
+        method: e.method,
+        interval: e.interval,
+        stillFollowed: e.stillFollowed,
+        followedThrough: e.followedThrough,
+      };
+      const done = e.final ? byLabel.get(label) : undefined;
+      if (done) return { ...base, ...done, provisional: false };
       return {
-        ...m,
-        rate: m.trials === 0 ? null : m.events / m.trials,
-        lower: limits?.lower ?? null,
-        upper: limits?.upper ?? null,
+        ...base,
+        rate: e.probability,
+        lower: null,
+        upper: null,
         signal: null,
         provisional: true,
       };
     }),
+  };
+}
+
+/** The month `label` ("YYYY-MM") cut to the period. */
+function monthWithin(label: string, period: PeriodQuery): PeriodQuery {
+  const [y, m] = label.split('-').map(Number) as [number, number];
+  const last = new Date(Date.UTC(y, m, 0)).getUTCDate();
+  const from = `${label}-01`;
+  const to = `${label}-${String(last).padStart(2, '0')}`;
+  return { from: from < period.from ? period.from : from, to: to > period.to ? period.to : to };
+}
+
+/**
+ * Each shop's monthly comeback estimates from the follow-up tables the comparison uses, grouped by
+ * the shop's local month of collection (closed months from shop_month_figures, open ones from the
+ * jobs' index). A month in which no job has been followed through the window yet is estimated as
+ * the comparison estimates it for that month: the network curve of the twelve months before it,
+ * carried by the month's observed ÷ expected comebacks (its reference is loaded only then, and
+ * kept as the comparison keeps it).
+ */
+async function comebackTrend(
+  conn: Db,
+  shops: readonly NetworkShop[],
+  period: PeriodQuery,
+  asOf: Date,
+  referenceCache?: boolean,
+): Promise<{ warrantyDays: number; shops: MonthlyComebacks[] }> {
+  const months = monthsOf(period);
+  const settings = await loadSettings(conn);
+  const w = settings.warrantyDays;
+  const tables =
+    shops.length === 0
+      ? new Map<string, SurvivalTable>()
+      : await followUpTables(
+          conn,
+          shops.map((s) => s.id),
+          period,
+          asOf,
+          settings,
+          { byMonth: true },
+        );
+  const table = (shop: NetworkShop, label: string) =>
+    tables.get(`${shop.id}:${label}`) ?? emptyTable(w);
+  const references = new Map<string, ComebackReference | null>();
+  await Promise.all(
+    months
+      .filter((label) =>
+        shops.some((shop) => {
+          const t = tableTotals(table(shop, label), w);
+          return t.jobs > 0 && t.followedThrough === 0 && t.censoredBefore > 0;
+        }),
+      )
+      .map(async (label) => {
+        const loaded = await loadReference(conn, monthWithin(label, period), asOf, settings, {
+          cache: referenceCache,
+        });
+        references.set(label, loaded.reference);
+      }),
+  );
+  return {
+    warrantyDays: w,
+    shops: shops.map((shop) => ({
+      shop: toRef(shop),
+      ...comebackTrendPoints(
+        months.map((label) => ({
+          label,
+          estimate: comebackEstimate(table(shop, label), {
+            warrantyDays: w,
+            reference: references.get(label) ?? null,
+          }),
+        })),
+      ),
+    })),
   };
 }
 
@@ -180,37 +228,26 @@ async function trendsFor(
   metric: TrendMetric,
   period: PeriodQuery,
   asOf: Date,
+  referenceCache?: boolean,
 ): Promise<TrendsResult> {
   const months = monthsOf(period);
-  const rows = await monthlyRows(
-    conn,
-    metric,
-    shops.map((s) => s.id),
-    period,
-    asOf,
-  );
-  const byKey = new Map(rows.map((r) => [`${r.shopId}:${r.month}`, r]));
   const info = { ...period, asOf: asOf.toISOString() };
-  const cell = (shop: NetworkShop, month: string) => byKey.get(`${shop.id}:${month}`);
   if (metric === 'comebacks') {
     return {
       metric,
       period: info,
       months,
-      shops: shops.map((shop) => {
-        const all = months.map((label) => {
-          const r = cell(shop, label);
-          return {
-            label,
-            events: Number(r?.events ?? 0),
-            trials: Number(r?.trials ?? 0),
-            open: Number(r?.open ?? 0),
-          };
-        });
-        return { shop: toRef(shop), ...provisionalPChart(all) };
-      }),
+      ...(await comebackTrend(conn, shops, period, asOf, referenceCache)),
     };
   }
+  const rows = await monthlyRows(
+    conn,
+    metric,
+    shops.map((s) => s.id),
+    period,
+  );
+  const byKey = new Map(rows.map((r) => [`${r.shopId}:${r.month}`, r]));
+  const cell = (shop: NetworkShop, month: string) => byKey.get(`${shop.id}:${month}`);
   if (metric === 'turnaround') {
     return {
       metric,
@@ -270,7 +307,14 @@ export async function networkTrends(
   }
   const shown =
     query.region === undefined ? shops : shops.filter((s) => s.region.id === query.region);
-  return trendsFor(conn, shown, query.metric, { from: query.from, to: query.to }, asOf);
+  return trendsFor(
+    conn,
+    shown,
+    query.metric,
+    { from: query.from, to: query.to },
+    asOf,
+    ctx.referenceCache,
+  );
 }
 
 /** `GET /api/shops/{id}/trends`: one shop's monthly series; a shop outside the scope is not found. */
@@ -283,5 +327,12 @@ export async function shopTrends(
   const { conn, asOf } = await resolveContext(ctx);
   const shop = (await loadShops(conn, principal)).find((s) => s.id === shopId && s.visible);
   if (!shop) throw notFound('shop');
-  return trendsFor(conn, [shop], query.metric, { from: query.from, to: query.to }, asOf);
+  return trendsFor(
+    conn,
+    [shop],
+    query.metric,
+    { from: query.from, to: query.to },
+    asOf,
+    ctx.referenceCache,
+  );
 }

@@ -209,16 +209,28 @@ export interface NetworkComparisonResult {
   shops: ShopFigures[];
 }
 
+/**
+ * One month of a shop's comeback trend: its jobs collected that month (`trials`), their counted
+ * comebacks so far (`events`) and the estimated probability of a counted comeback within the
+ * warranty window (`rate`) with its 95% interval. A final month (no job still followed) also has
+ * its p-chart limits and signal; an estimate has neither.
+ */
 export interface MonthlyComebackPoint extends PChartRow {
-  /** Jobs collected that month whose warranty window is still open (left out of the rate). */
-  open: number;
-  /** True while any window of the month is open: the rate is not final and never signals. */
+  /** How `rate` was estimated (as the comparison's estimate); null with no jobs. */
+  method: ComebackEstimateFigures['method'];
+  /** 95%: log–log Kaplan–Meier, or the ratio's exact interval times the network's probability. */
+  interval: Interval | null;
+  /** Jobs of the month still inside their window without a counted comeback. */
+  stillFollowed: number;
+  /** Jobs followed through the whole window (or back on its last day). */
+  followedThrough: number;
+  /** True while any job of the month is still followed: `rate` is an estimate, never judged. */
   provisional: boolean;
 }
 
 export interface MonthlyComebacks {
   shop: ShopRef;
-  /** p-chart around the shop's own rate over the months whose figures are final. */
+  /** p-chart centre: the shop's own rate over its final months (null with none). */
   center: number | null;
   points: MonthlyComebackPoint[];
 }
@@ -248,7 +260,14 @@ export interface MonthlyRevenue {
 }
 
 export type TrendsResult =
-  | { metric: 'comebacks'; period: PeriodInfo; months: string[]; shops: MonthlyComebacks[] }
+  | {
+      metric: 'comebacks';
+      period: PeriodInfo;
+      months: string[];
+      /** The warranty window the estimates are for, days. */
+      warrantyDays: number;
+      shops: MonthlyComebacks[];
+    }
   | { metric: 'turnaround'; period: PeriodInfo; months: string[]; shops: MonthlyTurnaround[] }
   | { metric: 'revenue'; period: PeriodInfo; months: string[]; shops: MonthlyRevenue[] };
 

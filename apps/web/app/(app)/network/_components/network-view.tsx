@@ -1,6 +1,7 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
+import Link from 'next/link';
 import { Panel } from '~/components/ui';
 import { comparisonQuery, networkTrendsQuery, type PeriodParams } from '~/lib/queries/network';
 import { ComparisonTable } from './comparison-table';
@@ -9,7 +10,7 @@ import { CensoringNote } from './censoring-note';
 import { formatCount, formatInterval, formatMoney, formatPercent } from './format';
 import { FunnelPanel } from './funnel-panel';
 import { PeriodPicker } from './period-picker';
-import { formatMonth, formatPeriod } from './periods';
+import { formatMonth, formatPeriod, viewHref } from './periods';
 import { ComebackPCharts, RevenueTrend, TurnaroundTrend } from './trend-charts';
 import { UnitsToggle, useUnit } from './units-toggle';
 
@@ -31,6 +32,8 @@ export function NetworkView(props: {
   trendParams: PeriodParams;
   today: string;
   invalid: boolean;
+  /** Set when the address names no period and the default is shown: the quarter with final figures. */
+  defaultShown?: { finalQuarter: { from: string; to: string; label: string } };
 }) {
   const unit = useUnit();
   const comparison = useQuery(comparisonQuery(props.params));
@@ -60,9 +63,15 @@ export function NetworkView(props: {
           role="status"
           className="mb-4 rounded-md border border-amber-300 bg-amber-50 px-4 py-2 text-amber-900"
         >
-          The period in the address is not a valid pair of dates, so the latest quarter with final
-          comeback figures is shown.
+          The period in the address is not a valid pair of dates, so the last whole month is shown.
         </p>
+      )}
+      {props.defaultShown && (
+        <DefaultPeriodNote
+          period={data.period}
+          finalQuarter={props.defaultShown.finalQuarter}
+          region={props.params.region}
+        />
       )}
       <dl className="mb-6 grid grid-cols-2 gap-4 lg:grid-cols-4">
         <Fact
@@ -159,6 +168,30 @@ export function NetworkView(props: {
         </Panel>
       </div>
     </>
+  );
+}
+
+/** Why the page opens on the last whole month, and where the final figures are. */
+function DefaultPeriodNote(props: {
+  period: { from: string; to: string };
+  finalQuarter: { from: string; to: string; label: string };
+  region?: number;
+}) {
+  const month = formatMonth(props.period.from.slice(0, 7));
+  return (
+    <p className="mb-4 rounded-md border border-sea-200 bg-sea-50 px-4 py-2 text-slate-800">
+      <strong className="font-semibold">Showing {month}, the last whole month.</strong> It is the
+      latest month with every day&apos;s work in, and recent enough to act on: a shop going wrong
+      shows here within weeks, because its comebacks so far are weighed against what each job&apos;s
+      follow-up predicts. For final comeback rates, with every warranty window closed, see{' '}
+      <Link
+        className="font-medium text-sea-800 underline"
+        href={viewHref('/network', { ...props.finalQuarter, region: props.region })}
+      >
+        {props.finalQuarter.label}
+      </Link>
+      .
+    </p>
   );
 }
 

@@ -3,6 +3,7 @@ import {
   formatPeriod,
   kindOf,
   lastCompleteQuarter,
+  lastWholeMonth,
   latestFinalQuarter,
   quarterOptions,
   readViewParams,
@@ -16,7 +17,17 @@ const SEASONS = [
 ];
 
 describe('periods', () => {
-  it('the default is the latest quarter whose 90-day warranty windows have all closed', () => {
+  it('the default is the last whole month, across a new year too', () => {
+    expect(lastWholeMonth('2026-12-01')).toEqual({
+      kind: 'month',
+      from: '2026-11-01',
+      to: '2026-11-30',
+    });
+    expect(lastWholeMonth('2027-01-31')).toMatchObject({ from: '2026-12-01', to: '2026-12-31' });
+    expect(lastWholeMonth('2028-03-15')).toMatchObject({ from: '2028-02-01', to: '2028-02-29' });
+  });
+
+  it('the latest final quarter is the latest whose 90-day warranty windows have all closed', () => {
     expect(lastCompleteQuarter('2026-12-01')).toMatchObject({
       from: '2026-07-01',
       to: '2026-09-30',

@@ -69,9 +69,15 @@ export function lastCompleteQuarter(today: string): Period {
   return q === 1 ? quarterPeriod(y - 1, 4) : quarterPeriod(y, q - 1);
 }
 
+/** The last whole calendar month before `today`'s: the network view's default period. */
+export function lastWholeMonth(today: string): Period {
+  const [y, m] = parts(today);
+  return m === 1 ? monthPeriod(y - 1, 12) : monthPeriod(y, m - 1);
+}
+
 /**
- * The default period: the latest calendar quarter whose comeback figures are final, i.e. every
- * job collected in it has seen its warranty window close by `today`.
+ * The latest calendar quarter whose comeback figures are final, i.e. every job collected in it
+ * has seen its warranty window close by `today`.
  */
 export function latestFinalQuarter(today: string, warrantyDays: number): Period {
   let q = lastCompleteQuarter(today);

@@ -13,6 +13,7 @@ import type { TrendsResult } from '~/server/queries/network';
 import {
   DASH,
   formatCount,
+  formatInterval,
   formatMoney,
   formatPercent,
   inUnit,
@@ -35,7 +36,11 @@ function SeriesLegend({ names }: { names: string[] }) {
   );
 }
 
-/** One p-chart per shop: monthly comeback rate around the shop's own average, with 3-sigma limits. */
+/**
+ * One chart per shop: each month's comeback estimate with its 95% interval. Final months form a
+ * p-chart around the shop's own rate with 3-sigma limits; months with jobs still followed are
+ * estimates, drawn as rings and never judged against the limits.
+ */
 export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; span: string }) {
   const single = result.shops.length === 1;
   return (
@@ -50,19 +55,21 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
         const id = `pchart-${shop.id}`;
         const title = `${shop.name}: monthly comeback rate, ${span} (p-chart)`;
         const signals = points.filter((p) => p.signal);
-        const provisional = points.filter((p) => p.provisional && p.trials > 0);
-        const notFinal =
-          provisional.length === 0
+        const estimates = points.filter((p) => p.provisional && p.trials > 0);
+        const followed = estimates.reduce((n, p) => n + p.stillFollowed, 0);
+        const jobs = estimates.reduce((n, p) => n + p.trials, 0);
+        const estimated =
+          estimates.length === 0
             ? ''
-            : ` ${provisionalText(provisional.map((p) => p.label))} not final: their warranty windows are still open, so they count returns but not yet the jobs that will stay away; they are drawn as rings and not judged against the limits.`;
+            : ` ${monthsText(estimates.map((p) => p.label))} ${estimates.length === 1 ? 'is an estimate' : 'are estimates'}: ${formatCount(followed)} of ${estimates.length === 1 ? 'its' : 'their'} ${formatCount(jobs)} jobs are still being followed inside the ${result.warrantyDays}-day window, so ${estimates.length === 1 ? 'it is' : 'each is'} drawn as a ring with its 95% interval and not judged against the limits.`;
         const summary =
           center === null
-            ? `No month with final figures to set a centre line.${notFinal}`
+            ? `No month with final figures to set a centre line.${estimated}`
             : `Centre line ${formatPercent(center)} (the shop's own rate over the months with final figures). ${
                 signals.length === 0
                   ? 'Every final month is inside its 3-sigma limits.'
                   : `${signals.map((p) => `${formatMonth(p.label)} is ${p.signal} its limits (${formatPercent(p.rate)})`).join('; ')}.`
-              }${notFinal}`;
+              }${estimated}`;
         return (
           <ChartFigure
             key={shop.id}
@@ -71,19 +78,28 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
             summary={summary}
             legend={
               <div className="flex flex-wrap gap-x-4 gap-y-1">
-                <LegendItem colour={P_CHART_COLOURS.rate}>Monthly rate</LegendItem>
-                <LegendItem colour={P_CHART_COLOURS.centre} mark="line">
-                  Centre line
-                </LegendItem>
-                <LegendItem colour={P_CHART_COLOURS.limit} mark="dash">
-                  3-sigma limits
-                </LegendItem>
-                <LegendItem colour={P_CHART_COLOURS.signal} mark="diamond">
-                  Outside the limits
-                </LegendItem>
-                {provisional.length > 0 && (
+                <LegendItem colour={P_CHART_COLOURS.rate}>Final monthly rate</LegendItem>
+                {estimates.length > 0 && (
                   <LegendItem colour={P_CHART_COLOURS.rate} mark="ring">
-                    Not final yet
+                    Estimate, jobs still followed
+                  </LegendItem>
+                )}
+                <LegendItem colour={P_CHART_COLOURS.interval} mark="line">
+                  95% interval
+                </LegendItem>
+                {center !== null && (
+                  <LegendItem colour={P_CHART_COLOURS.centre} mark="line">
+                    Centre line
+                  </LegendItem>
+                )}
+                {center !== null && (
+                  <LegendItem colour={P_CHART_COLOURS.limit} mark="dash">
+                    3-sigma limits
+                  </LegendItem>
+                )}
+                {signals.length > 0 && (
+                  <LegendItem colour={P_CHART_COLOURS.signal} mark="diamond">
+                    Outside the limits
                   </LegendItem>
                 )}
               </div>
@@ -93,12 +109,14 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
                 caption={title}
                 columns={[
                   { label: 'Month' },
-                  { label: 'Jobs counted', numeric: true },
-                  { label: 'Comebacks', numeric: true },
-                  { label: 'Rate', numeric: true },
+                  { label: 'Jobs collected', numeric: true },
+                  { label: 'Comebacks so far', numeric: true },
+                  { label: 'Still followed', numeric: true },
+                  { label: 'Rate or estimate', numeric: true },
+                  { label: '95% interval', numeric: true },
                   { label: 'Lower limit', numeric: true },
                   { label: 'Upper limit', numeric: true },
-                  { label: 'Signal' },
+                  { label: 'Reading' },
                 ]}
                 rows={points.map((p) => ({
                   key: p.label,
@@ -106,31 +124,33 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
                     formatMonth(p.label),
                     formatCount(p.trials),
                     formatCount(p.events),
+                    formatCount(p.stillFollowed),
                     formatPercent(p.rate),
+                    p.interval ? formatInterval(p.interval) : DASH,
                     formatPercent(p.lower),
                     formatPercent(p.upper),
-                    p.provisional
-                      ? p.trials === 0
-                        ? 'not final'
-                        : `not final (${formatCount(p.open)} still in their window)`
-                      : p.signal
-                        ? `${p.signal} the limits`
-                        : 'inside',
+                    p.trials === 0
+                      ? 'no jobs collected'
+                      : p.provisional
+                        ? p.method === 'network × ratio'
+                          ? 'estimate: the network curve × observed ÷ expected, none followed through yet'
+                          : p.method === null
+                            ? 'estimate not available yet'
+                            : 'estimate (Kaplan–Meier), not judged'
+                        : p.signal
+                          ? `final, ${p.signal} the limits`
+                          : 'final, inside the limits',
                   ],
                 }))}
               />
             }
           >
-            {center === null ? (
-              <p className="text-slate-600">Nothing to draw until a month's figures are final.</p>
-            ) : (
-              <PChart
-                points={points}
-                center={center}
-                formatLabel={formatMonth}
-                height={single ? 260 : 200}
-              />
-            )}
+            <PChart
+              points={points}
+              center={center}
+              formatLabel={formatMonth}
+              height={single ? 260 : 200}
+            />
           </ChartFigure>
         );
       })}
@@ -138,11 +158,11 @@ export function ComebackPCharts({ result, span }: { result: Of<'comebacks'>; spa
   );
 }
 
-/** "September 2026 is" or "September, October and November 2026 are". */
-function provisionalText(labels: string[]) {
+/** "September 2026" or "September, October and November 2026". */
+function monthsText(labels: string[]) {
   const names = labels.map(formatMonth);
-  if (names.length === 1) return `${names[0]} is`;
-  return `${names.slice(0, -1).join(', ')} and ${names.at(-1)} are`;
+  if (names.length === 1) return names[0]!;
+  return `${names.slice(0, -1).join(', ')} and ${names.at(-1)}`;
 }
 
 /** Monthly turnaround: per shop the customer p90 (network), or one shop's median and p90 of both. */

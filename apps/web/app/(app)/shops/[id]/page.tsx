@@ -8,16 +8,11 @@ import { idParam } from '~/lib/validators/common';
 import { TREND_METRICS } from '~/lib/validators/network';
 import { ApiError } from '~/server/errors';
 import { comebackBreakdown } from '~/server/queries/comebacks';
-import {
-  networkSettingsUsed,
-  shopMetrics,
-  shopTrends,
-  visibleShop,
-} from '~/server/queries/network';
+import { shopMetrics, shopTrends, visibleShop } from '~/server/queries/network';
 import { requirePagePrincipal } from '~/server/session';
 import {
   formatPeriod,
-  latestFinalQuarter,
+  lastWholeMonth,
   readViewParams,
   todayIn,
   trendWindow,
@@ -40,8 +35,7 @@ export default async function ShopPage(props: {
   try {
     const { timeZone } = await visibleShop(principal, id.data);
     const today = todayIn(timeZone, asOf);
-    const { warrantyDays } = await networkSettingsUsed();
-    const view = readViewParams(await props.searchParams, latestFinalQuarter(today, warrantyDays));
+    const view = readViewParams(await props.searchParams, lastWholeMonth(today));
     const period = { from: view.from, to: view.to };
     const trend = trendWindow(period);
     const queryClient = new QueryClient();

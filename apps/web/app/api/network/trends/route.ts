@@ -1,4 +1,4 @@
-// GET /api/network/trends – monthly comeback p-chart, turnaround or revenue per bench hour for every shop in scope
+// GET /api/network/trends – monthly comeback estimates with their intervals (p-chart limits on final months), turnaround or revenue per bench hour for every shop in scope
 import { networkTrendsQuery } from '~/lib/validators/network';
 import { route } from '~/server/api';
 import { networkTrends } from '~/server/queries/network';

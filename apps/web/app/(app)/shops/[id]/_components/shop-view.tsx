@@ -241,8 +241,7 @@ export function ShopView(props: {
           role="status"
           className="mb-4 rounded-md border border-amber-300 bg-amber-50 px-4 py-2 text-amber-900"
         >
-          The period in the address is not a valid pair of dates, so the latest quarter with final
-          comeback figures is shown.
+          The period in the address is not a valid pair of dates, so the last whole month is shown.
         </p>
       )}
       <CensoringNote

@@ -1,4 +1,4 @@
-// GET /api/shops/{id}/trends – one shop's monthly comeback p-chart, turnaround or revenue per bench hour (404 outside the scope)
+// GET /api/shops/{id}/trends – one shop's monthly comeback estimates with their intervals (p-chart limits on final months), turnaround or revenue per bench hour (404 outside the scope)
 import { idParams } from '~/lib/validators/common';
 import { shopTrendsQuery } from '~/lib/validators/network';
 import { route } from '~/server/api';
