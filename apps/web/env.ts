@@ -35,6 +35,15 @@ const schema = z.object({
   STRIPE_API_BASE: z.url().optional(),
   // Public address of the app for links in e-mail (unsubscribe); default NEXTAUTH_URL.
   APP_BASE_URL: z.url().optional(),
+  // The app's clock at start-up, an ISO instant with its offset (server/clock.ts); unset: the
+  // wall clock. The end-to-end tests set it to the seed's "today".
+  REELWRIGHT_NOW: z.iso
+    .datetime({ offset: true })
+    .refine((v) => {
+      const [y, m, d] = v.slice(0, 10).split('-').map(Number) as [number, number, number];
+      return new Date(Date.UTC(y, m - 1, d)).getUTCDate() === d;
+    }, 'REELWRIGHT_NOW must be a real calendar date')
+    .optional(),
   // Tests: generated requests per route in the route fuzz tests (default 1,000 under CI, else 100).
   CI: z.string().optional(),
   FUZZ_RUNS: z.coerce.number().int().min(1).max(100_000).optional(),
@@ -62,6 +71,7 @@ function load() {
     STRIPE_WEBHOOK_SECRET: process.env.STRIPE_WEBHOOK_SECRET || undefined,
     STRIPE_API_BASE: process.env.STRIPE_API_BASE || undefined,
     APP_BASE_URL: process.env.APP_BASE_URL || undefined,
+    REELWRIGHT_NOW: process.env.REELWRIGHT_NOW || undefined,
     CI: process.env.CI || undefined,
     FUZZ_RUNS: process.env.FUZZ_RUNS || undefined,
   });

@@ -2,6 +2,7 @@ import { expect, test, type APIRequestContext, type Page } from '@playwright/tes
 import { deflateSync } from 'node:zlib';
 import { screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
+import { SEED_NOW } from './clock';
 
 // Photos (straight to the local S3 fake), the ready-for-pickup e-mail (through the local SMTP
 // catcher) and the CSV import of past jobs.
@@ -57,7 +58,8 @@ function pngImage(width = 96, height = 72): Buffer {
   ]);
 }
 
-const inDays = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
+const inDays = (n: number) =>
+  new Date(SEED_NOW.getTime() + n * 86_400_000).toISOString().slice(0, 10);
 
 /** Checks a reel in at the caller's shop through the API and puts it on the bench. */
 async function benchJob(request: APIRequestContext, customer: { name: string; email?: string }) {

@@ -1,8 +1,7 @@
 import { expect, test, type APIRequestContext, type Browser, type Page } from '@playwright/test';
 import { screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
-
-const DAY = 86_400_000;
+import { DAY, SEED_NOW } from './clock';
 
 interface JobRow {
   id: number;
@@ -42,7 +41,7 @@ async function recentlyCollected(browser: Browser): Promise<JobDetail> {
       `/api/jobs?shopId=${marram}&state=collected&sort=stateChangedAt&dir=desc&pageSize=100`,
     )
   ).json()) as { jobs: JobRow[] };
-  const now = Date.now();
+  const now = SEED_NOW.getTime();
   for (const row of list.jobs) {
     const age = now - Date.parse(row.stateChangedAt);
     if (age < 10 * DAY || age > 75 * DAY) continue;
@@ -250,7 +249,7 @@ test.describe('comebacks', () => {
     const tech = await browser.newContext({ storageState: storageState('techMarram') });
     const marram = await shopId(tech.request, 'Marram Point');
     const until = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/New_York' }).format(
-      new Date(Date.now() - 130 * DAY),
+      new Date(SEED_NOW.getTime() - 130 * DAY),
     );
     const list = (await (
       await tech.request.get(
@@ -261,7 +260,7 @@ test.describe('comebacks', () => {
     // Check reels in until one is not flagged on its own (its last job is outside the window).
     let jobId: number | null = null;
     for (const row of list.jobs) {
-      if (Date.now() - Date.parse(row.stateChangedAt) < 100 * DAY) continue;
+      if (SEED_NOW.getTime() - Date.parse(row.stateChangedAt) < 100 * DAY) continue;
       const detail = (await (await tech.request.get(`/api/jobs/${row.id}`)).json()) as JobDetail & {
         customer: { id: number };
         reel: { id: number };
@@ -269,7 +268,7 @@ test.describe('comebacks', () => {
       if (detail.comebackOfJobId !== null) continue;
       const promisedOn = new Intl.DateTimeFormat('en-CA', {
         timeZone: detail.shop.timeZone,
-      }).format(new Date(Date.now() + 7 * DAY));
+      }).format(new Date(SEED_NOW.getTime() + 7 * DAY));
       const created = await tech.request.post('/api/jobs', {
         data: {
           customer: { id: detail.customer.id },

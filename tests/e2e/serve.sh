@@ -45,7 +45,10 @@ export NEXTAUTH_URL="http://127.0.0.1:$port"
 # (X-Forwarded-For) so the block never reaches 127.0.0.1, which every other spec signs in from.
 export TRUSTED_PROXY_HOPS=1
 unset DATABASE_URL
-pnpm --silent --filter @reelwright/db seed
+# One clock: the seed's "today" and the server's clock at start are the same instant
+# (tests/e2e/clock.ts reads it too), so no spec depends on the day the suite runs.
+export REELWRIGHT_NOW="${REELWRIGHT_NOW:-2026-12-01T12:00:00Z}"
+pnpm --silent --filter @reelwright/db seed --now="$REELWRIGHT_NOW"
 cd apps/web
 # Idle connections stay open longer than a client keeps them, so a reused one is never reset.
 pnpm exec next start --hostname 127.0.0.1 --port "$port" --keepAliveTimeout 65000

@@ -1,14 +1,13 @@
 import { expect, test, type Browser, type Page } from '@playwright/test';
 import { storageState, type AccountName } from './accounts';
 import { expectAccessible } from './axe';
+import { SEED_NOW } from './clock';
 
 // The demo network's story, read from the network page as a manager reads it: Brackwater Flats'
 // comebacks run ahead of what its follow-up predicts, Skerry Wharf's reels wait on parts, and
 // Ternhollow Lake's raw rate is the worst yet in line for its few jobs.
 //
-// The e2e seed's "today" is 1 December 2026 at 12:00 UTC (DEFAULT_SEED_NOW of
-// packages/db/src/seed/index.ts); the month before it, in New York, is the one read here.
-const SEED_NOW = new Date('2026-12-01T12:00:00Z');
+// The month before the seed's "today" (tests/e2e/clock.ts), in New York, is the one read here.
 
 /** The local month before the seed's "today", as the picker's dates. */
 function monthBefore(now: Date) {

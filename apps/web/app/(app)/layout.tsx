@@ -4,8 +4,10 @@ import { Logo } from '~/components/logo';
 import { env } from '~/env';
 import { navFor } from '~/lib/navigation';
 import { ROLE_LABELS } from '~/lib/permissions';
+import * as clock from '~/server/clock';
 import { requirePagePrincipal } from '~/server/session';
 import { NavLinks } from './_components/nav-links';
+import { ServerClock } from './_components/server-clock';
 import { SignOutButton } from './_components/sign-out-button';
 
 /**
@@ -19,6 +21,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
   }).map(({ href, label, group }) => ({ href, label, group }));
   return (
     <div className="min-h-screen lg:grid lg:grid-cols-[14rem_minmax(0,1fr)] print:block">
+      <ServerClock now={clock.now().toISOString()} />
       <a
         href="#main"
         className="sr-only z-50 rounded bg-white px-4 py-2 text-sea-800 focus:not-sr-only focus:absolute focus:top-2 focus:left-2"

@@ -13,6 +13,7 @@ import type { Principal } from '~/server/principal';
 import { requirePagePrincipal } from '~/server/session';
 import { RoundsTable } from './audits/_components/rounds-table';
 import { ShopsTable } from './_components/shops-table';
+import * as clock from '~/server/clock';
 
 export const metadata: Metadata = { title: 'Home' };
 export const dynamic = 'force-dynamic';
@@ -95,7 +96,7 @@ async function NetworkHome({ principal }: { principal: Principal }) {
 }
 
 async function ShopHome({ principal, shopId }: { principal: Principal; shopId: number }) {
-  const asOf = new Date();
+  const asOf = clock.now();
   const shop = await getShop(principal, shopId);
   const mine = principal.role === 'technician';
   const [counts, open] = await Promise.all([

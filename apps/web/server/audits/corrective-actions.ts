@@ -14,6 +14,7 @@ import {
   type CorrectiveActionRow,
 } from '../queries/corrective-actions';
 import { shopScope } from '../queries/scope';
+import * as clock from '~/server/clock';
 
 const STATUS_WORDS: Record<(typeof CORRECTIVE_ACTION_STATUSES)[number], string> = {
   open: 'open',
@@ -53,7 +54,7 @@ export async function updateCorrectiveAction(
       );
 
     const changes: Partial<typeof correctiveActions.$inferInsert> = {};
-    const now = new Date();
+    const now = clock.now();
     if (patch.status !== undefined && patch.status !== before.status) {
       const allowed = correctiveActionMoves(mover, before.status);
       if (!allowed.includes(patch.status)) {

@@ -5,6 +5,7 @@ import { scopeOf, type Principal } from '../principal';
 import { addDays } from './sampling';
 import { planRound } from './plan';
 import { saveSample } from './score';
+import * as clock from '~/server/clock';
 
 // A few months of audit rounds for the demo network, planned and scored through the product's
 // own planning and scoring, so the audit screens and figures have a history on first start. The
@@ -98,7 +99,7 @@ export interface DemoAuditHistory {
  * Does nothing when any audit round exists already, so a second demo start keeps what is there.
  */
 export async function addDemoAuditHistory(
-  options: { today: string; months?: number } = { today: new Date().toISOString().slice(0, 10) },
+  options: { today: string; months?: number } = { today: clock.now().toISOString().slice(0, 10) },
 ): Promise<DemoAuditHistory | null> {
   const conn = await db();
   const [existing] = await conn.select({ n: sql<number>`count(*)::int` }).from(auditRounds);

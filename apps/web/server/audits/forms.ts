@@ -3,6 +3,7 @@ import { activityLog, auditFormItems, auditForms } from '@reelwright/db/schema';
 import type { AuditFormInput } from '~/lib/validators/audits';
 import { db } from '../db';
 import type { Principal } from '../principal';
+import * as clock from '~/server/clock';
 
 /**
  * Publishes the next version of the audit form. Versions are never edited: rounds keep the
@@ -18,7 +19,7 @@ export async function publishAuditForm(principal: Principal, input: AuditFormInp
       .orderBy(desc(auditForms.version))
       .limit(1)
       .for('update');
-    const now = new Date();
+    const now = clock.now();
     const [form] = await tx
       .insert(auditForms)
       .values({

@@ -10,6 +10,7 @@ import {
 import { TZDate } from '@date-fns/tz';
 import { format } from 'date-fns';
 import type { InspectionLevelValue, SeverityValue } from '~/lib/validators/audits';
+import * as clock from '~/server/clock';
 
 type Conn = Db | Tx;
 
@@ -19,7 +20,7 @@ export function metricsLevel(level: InspectionLevelValue): InspectionLevel {
 }
 
 /** Today's local date in a time zone, "YYYY-MM-DD". */
-export function localToday(timeZone: string, now = new Date()): string {
+export function localToday(timeZone: string, now = clock.now()): string {
   return format(new TZDate(now, timeZone), 'yyyy-MM-dd');
 }
 

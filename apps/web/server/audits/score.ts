@@ -20,6 +20,7 @@ import { queueEmail } from '../mail/outbox';
 import type { Principal } from '../principal';
 import { auditRejectedEmail, period } from './emails';
 import { addDays, decideLot, localToday } from './sampling';
+import * as clock from '~/server/clock';
 
 const VERDICT_VALUES: Record<AuditVerdict, VerdictValue> = {
   'meets standard': 'meets_standard',
@@ -127,7 +128,7 @@ export async function saveSample(
     );
     const verdict = VERDICT_VALUES[result.verdict];
     const score = Math.round(result.score * 100) / 100;
-    const now = new Date();
+    const now = clock.now();
     const final = input.final === true;
 
     await tx.delete(auditAnswers).where(eq(auditAnswers.sampleId, sample.id));

@@ -15,6 +15,7 @@ import { badRequest, forbidden, notFound } from '../errors';
 import type { Principal } from '../principal';
 import { localDate, promiseInstant, shopCalendar } from './calendar';
 import { flatPrice, logActivity } from './shared';
+import * as clock from '~/server/clock';
 
 /** The shop a bench write happens in: only a shop's own people check reels in. */
 export function benchShopOf(principal: Principal): number {
@@ -52,7 +53,7 @@ export async function checkIn(
   input: CheckInInput,
   options: { now?: Date } = {},
 ): Promise<{ id: number; comebackId: number | null; emailsQueued: number }> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const shopId = benchShopOf(principal);
   const conn = await db();
   return conn.transaction(async (tx) => {

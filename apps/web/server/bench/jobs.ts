@@ -29,6 +29,7 @@ import {
   logActivity,
   syncTotals,
 } from './shared';
+import * as clock from '~/server/clock';
 
 const invalid = (field: string, message: string) =>
   badRequest('Some body fields are not valid.', [{ field: `body.${field}`, message }]);
@@ -40,7 +41,7 @@ export async function patchJob(
   patch: JobPatch,
   options: { now?: Date } = {},
 ) {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   await conn.transaction(async (tx) => {
     const job = await lockJob(tx, principal, id);
@@ -131,7 +132,7 @@ export async function transitionJob(
   input: TransitionInput,
   options: { now?: Date } = {},
 ): Promise<{ emailQueued: boolean }> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   return conn.transaction(async (tx) => {
     let job = await lockJob(tx, principal, id);

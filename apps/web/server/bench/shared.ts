@@ -11,6 +11,7 @@ import {
 import type { Principal } from '../principal';
 import { notFound } from '../errors';
 import { conflict } from '../errors';
+import * as clock from '~/server/clock';
 
 /** Jobs inside the caller's shops (undefined: the whole network). */
 export function jobScope(principal: Principal): SQL | undefined {
@@ -61,7 +62,7 @@ export async function logActivity(
   },
 ) {
   await tx.insert(activityLog).values({
-    at: entry.at ?? new Date(),
+    at: entry.at ?? clock.now(),
     userId: entry.principal.id,
     action: entry.action,
     entityType: entry.entityType,

@@ -6,6 +6,7 @@ import { badRequest, conflict, notFound } from '../errors';
 import type { Principal } from '../principal';
 import { applicableSteps } from '../queries/bench';
 import { assertOpen, lockJob, logActivity, pgError, syncTotals } from './shared';
+import * as clock from '~/server/clock';
 
 const RUNNING_INDEX = 'bench_sessions_one_running_per_technician_uq';
 
@@ -19,7 +20,7 @@ export async function recordBenchTime(
   input: BenchSessionInput,
   options: { now?: Date } = {},
 ) {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   try {
     await conn.transaction(async (tx) => {
@@ -128,7 +129,7 @@ export async function addPart(
   input: PartInput,
   options: { now?: Date } = {},
 ) {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   return conn.transaction(async (tx) => {
     const job = await lockJob(tx, principal, id);
@@ -165,7 +166,7 @@ export async function deletePart(
   partId: number,
   options: { now?: Date } = {},
 ) {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   await conn.transaction(async (tx) => {
     const job = await lockJob(tx, principal, id);
@@ -205,7 +206,7 @@ export async function setChecklist(
   input: ChecklistInput,
   options: { now?: Date } = {},
 ) {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   await conn.transaction(async (tx) => {
     const job = await lockJob(tx, principal, id);

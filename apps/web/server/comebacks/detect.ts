@@ -8,6 +8,7 @@ import type { Principal } from '../principal';
 import { sameReelJobs } from './same-reel';
 import { queueReviewEmails } from './notify';
 import { loadComebackSettings } from './settings';
+import * as clock from '~/server/clock';
 
 const DAY = 86_400_000;
 
@@ -157,7 +158,7 @@ export async function linkComeback(
   input: ComebackLinkInput,
   options: { now?: Date } = {},
 ) {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   if (principal.scope.kind !== 'shop')
     throw forbidden('Only the people of the shop the reel came back to link it.');
   const conn = await db();

@@ -18,6 +18,7 @@ import { applicableSteps } from '../queries/bench';
 import { getComeback, redoCost, reviewRights, type ComebackDetail } from '../queries/comebacks';
 import { shopScope } from '../queries/scope';
 import { queueReviewEmails } from './notify';
+import * as clock from '~/server/clock';
 
 const REVIEW_FIELDS = [
   'status',
@@ -77,7 +78,7 @@ export async function updateComeback(
   patch: ComebackPatch,
   options: { now?: Date; baseUrl?: string | null } = {},
 ): Promise<{ comeback: ComebackDetail; emailsQueued: number }> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   const emailsQueued = await conn.transaction(async (tx) => {
     const { cb: before, regionId } = await lockComeback(tx, principal, id);

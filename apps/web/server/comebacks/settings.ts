@@ -10,6 +10,7 @@ import type { ComebackSettingsInput } from '~/lib/validators/comebacks';
 import { db } from '../db';
 import { badRequest } from '../errors';
 import type { Principal } from '../principal';
+import * as clock from '~/server/clock';
 
 export interface ComebackSettings {
   warrantyDays: number;
@@ -119,7 +120,7 @@ export async function saveComebackSettings(principal: Principal, input: Comeback
       });
     if (errors.length) throw badRequest('Some body fields are not valid.', errors);
 
-    const now = new Date();
+    const now = clock.now();
     const after = {
       warrantyDays: input.warrantyDays,
       reviewDeadlineDays: input.reviewDeadlineDays,

@@ -21,6 +21,7 @@ import { conflict } from '../errors';
 import type { Principal } from '../principal';
 import { bulkInsert } from './bulk';
 import { invert, refuseDuplicate, yieldToEventLoop, type PreparedImport } from './prepare';
+import * as clock from '~/server/clock';
 
 // The second half of a CSV job import: storing a file prepare.ts has checked.
 
@@ -348,7 +349,7 @@ export async function runImport(
         .set({
           status: 'imported',
           importedCount: total,
-          completedAt: new Date(),
+          completedAt: clock.now(),
           heartbeatAt: null,
         })
         .where(eq(importBatches.id, batchId));
@@ -418,7 +419,7 @@ async function takeBack(batchId: number, reason: string) {
       status: 'failed',
       importedCount: 0,
       heartbeatAt: null,
-      completedAt: new Date(),
+      completedAt: clock.now(),
       errors: [{ row: 0, message: `${reason}; nothing was kept.` }],
     })
     .where(eq(importBatches.id, batchId));

@@ -17,6 +17,7 @@ import {
 import { db } from '../db';
 import { badRequest, conflict, forbidden } from '../errors';
 import type { Principal } from '../principal';
+import * as clock from '~/server/clock';
 
 // The first half of a CSV job import: reading and checking the whole file before anything is
 // written (jobs.ts stores what passes).
@@ -92,7 +93,7 @@ export async function refuseDuplicate(shopId: number, digest: string, fileName: 
 export async function prepareImport(
   principal: Principal,
   file: ImportFile,
-  now = new Date(),
+  now = clock.now(),
 ): Promise<PreparedImport> {
   const shop = await importShop(principal);
   const digest = digestOf(file.bytes);
@@ -162,7 +163,7 @@ export async function prepareImport(
         errors,
         columnMap: invert(file.mapping),
         createdById: principal.id,
-        completedAt: new Date(),
+        completedAt: clock.now(),
       })
       .returning({ id: importBatches.id });
     return { ok: false, batchId: batch!.id, rowCount, errors };

@@ -3,6 +3,7 @@ import { emails, type EmailKind } from '@reelwright/db/schema';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { env } from '~/env';
 import { db as appDb } from '../db';
+import * as clock from '~/server/clock';
 
 export interface QueuedEmail {
   kind: EmailKind;
@@ -105,7 +106,7 @@ export async function deliverPending(options: DeliverOptions = {}): Promise<Deli
   if (!options.transport && !smtpUrl) return { ...result, skipped: 'SMTP is not configured' };
   try {
     const conn = options.db ?? (await appDb());
-    const now = options.now ?? new Date();
+    const now = options.now ?? clock.now();
     const leaseUntil = new Date(now.getTime() + CLAIM_LEASE_MS);
     const due = conn
       .select({ id: emails.id })
@@ -144,7 +145,7 @@ export async function deliverPending(options: DeliverOptions = {}): Promise<Deli
           .update(emails)
           .set({
             status: 'sent',
-            sentAt: new Date(),
+            sentAt: clock.now(),
             messageId: info.messageId ?? null,
             lastError: null,
           })

@@ -6,6 +6,7 @@ import type { Principal } from '../principal';
 import { currentClose, monthEnded } from '../queries/month-close';
 import { auditsByShop, computeNetwork, networkRules } from './compute';
 import { monthLabel } from './period';
+import * as clock from '~/server/clock';
 
 /** Postgres "unique_violation", however the driver wraps it. */
 export function isUniqueViolation(error: unknown): boolean {
@@ -26,7 +27,7 @@ export async function closeMonth(
   options: { now?: Date } = {},
 ) {
   if (principal.scope.kind !== 'network') throw forbidden('Only the owner closes a month.');
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   if (!(await monthEnded(conn, month, now)))
     throw conflict(`${monthLabel(month)} has not ended in every shop yet; close it once it has.`);
@@ -76,7 +77,7 @@ export async function reopenMonth(
   options: { now?: Date } = {},
 ) {
   if (principal.scope.kind !== 'network') throw forbidden('Only the owner reopens a month.');
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   return conn.transaction(async (tx) => {
     const [row] = await tx

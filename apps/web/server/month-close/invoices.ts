@@ -9,6 +9,7 @@ import { currentClose } from '../queries/month-close';
 import { money } from './csv';
 import type { ShopFigures } from './figures';
 import { monthLabel } from './period';
+import * as clock from '~/server/clock';
 
 export interface IssuedInvoice {
   shopId: number;
@@ -53,7 +54,7 @@ export async function issueRoyaltyInvoices(
   const close = await currentClose(conn, month);
   if (!close) throw conflict(`Close ${monthLabel(month)} before issuing its royalty invoices.`);
   const stripe = options.stripe ?? stripeFromEnv();
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const frozen = close.figures;
   const result: IssueResult = {
     month,

@@ -24,6 +24,7 @@ import {
   UPLOAD_URL_SECONDS,
 } from '../storage';
 import { checkPhoto, tooLargeReason } from './check';
+import * as clock from '~/server/clock';
 
 export interface PhotoView {
   id: number;
@@ -107,7 +108,7 @@ export async function confirmPhotoUpload(
   principal: Principal,
   jobId: number,
   photoId: number,
-  now = new Date(),
+  now = clock.now(),
 ): Promise<PhotoView> {
   const job = await jobInScope(principal, jobId);
   if (!storageConfigured()) throw storageUnavailable();

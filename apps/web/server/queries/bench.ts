@@ -43,6 +43,7 @@ import { notFound } from '../errors';
 import type { Principal } from '../principal';
 import { jobBenchSessions, jobTimeline } from './job-history';
 import { shopFilter, shopScope } from './scope';
+import * as clock from '~/server/clock';
 
 const DAY = 86_400_000;
 
@@ -176,7 +177,7 @@ export async function listJobs(
   q: JobListQuery,
   options: { now?: Date } = {},
 ): Promise<JobList> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   await shopFilter(principal, q.shopId, conn);
   const zones = await conn
@@ -737,7 +738,7 @@ export async function promiseSuggestion(
   shopId: number,
   options: { now?: Date } = {},
 ): Promise<PromiseSuggestion & { today: string; timeZone: string }> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   const [shop] = await conn
     .select()

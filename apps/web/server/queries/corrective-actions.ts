@@ -12,6 +12,7 @@ import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
 import { shopFilter, shopScope } from './scope';
+import * as clock from '~/server/clock';
 
 export interface CorrectiveActionRow {
   id: number;
@@ -103,7 +104,7 @@ function toRow(
 export async function listCorrectiveActions(
   principal: Principal,
   query: CorrectiveActionListQuery = {},
-  now = new Date(),
+  now = clock.now(),
 ): Promise<CorrectiveActionRow[]> {
   await shopFilter(principal, query.shopId);
   const list = await rows(
@@ -120,7 +121,7 @@ export async function listCorrectiveActions(
 export async function getCorrectiveAction(
   principal: Principal,
   id: number,
-  now = new Date(),
+  now = clock.now(),
 ): Promise<CorrectiveActionRow> {
   const [row] = await rows(principal, eq(correctiveActions.id, id));
   if (!row) throw notFound('corrective action');

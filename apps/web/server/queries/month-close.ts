@@ -28,6 +28,7 @@ import {
 import { monthDates, monthLabel } from '../month-close/period';
 import type { Principal } from '../principal';
 import { shopScope } from './scope';
+import * as clock from '~/server/clock';
 
 export interface InvoiceSummary {
   status: RoyaltyInvoiceStatus;
@@ -261,7 +262,7 @@ export async function getMonthClose(
   month: string,
   options: { now?: Date } = {},
 ): Promise<MonthCloseReport> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   const scoped = await shopsIn(conn, shopScope(principal));
   const ids = scoped.map((s) => s.id);
@@ -348,7 +349,7 @@ export async function monthCloseCsv(
   month: string,
   options: { now?: Date } = {},
 ): Promise<{ filename: string; stream: ReadableStream<Uint8Array> }> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   const scoped = await shopsIn(conn, shopScope(principal));
   const ids = scoped.map((s) => s.id);

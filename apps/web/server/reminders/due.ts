@@ -14,6 +14,7 @@ import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
 import { shopScope } from '../queries/scope';
+import * as clock from '~/server/clock';
 
 export type ReminderState = 'to_send' | 'sent' | 'no_consent' | 'no_email';
 
@@ -116,7 +117,7 @@ export async function dueReminders(
 ): Promise<DueReport> {
   const conn = options.conn ?? (await db());
   const shop = await reminderShop(conn, principal, shopId);
-  const today = localToday(options.now ?? new Date(), shop.timeZone);
+  const today = localToday(options.now ?? clock.now(), shop.timeZone);
   const horizonDay = civilDayNumber(today) + weeks * 7;
   const from = dayString(civilDayNumber(today) - GRACE_DAYS);
   const season = { start: shop.seasonStart, end: shop.seasonEnd };

@@ -15,6 +15,7 @@ import { queueEmail } from '../mail/outbox';
 import type { Principal } from '../principal';
 import { dueReminders, reminderShop, type DueReel, type DueShop } from './due';
 import { serviceReminderEmail } from './template';
+import * as clock from '~/server/clock';
 
 /** A batch still "running" after this long was interrupted (a restart): a new one may start. */
 const STALE_MS = 10 * 60_000;
@@ -63,7 +64,7 @@ export async function startReminderBatch(
   input: { shopId: number; weeks: number },
   options: { now?: Date } = {},
 ): Promise<StartedBatch> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const conn = await db();
   const shop = await reminderShop(conn, principal, input.shopId);
   const [running] = await conn
@@ -190,7 +191,7 @@ export async function runBatch(
 ): Promise<void> {
   if (started.alreadyRunning || !started.items.length) return;
   const conn = await db();
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const id = started.batch.id;
   try {
     for (const item of started.items) {
@@ -211,12 +212,12 @@ export async function runBatch(
     }
     await conn
       .update(reminderBatches)
-      .set({ status: 'done', completedAt: new Date() })
+      .set({ status: 'done', completedAt: clock.now() })
       .where(eq(reminderBatches.id, id));
   } catch (error) {
     await conn
       .update(reminderBatches)
-      .set({ status: 'failed', completedAt: new Date() })
+      .set({ status: 'failed', completedAt: clock.now() })
       .where(eq(reminderBatches.id, id));
     throw error;
   }

@@ -2,6 +2,7 @@ import { eq } from '@reelwright/db';
 import { activityLog, customers, shops, unsubscribeTokens } from '@reelwright/db/schema';
 import { UNSUBSCRIBE_TOKEN } from '~/lib/validators/reminders';
 import { db } from '../db';
+import * as clock from '~/server/clock';
 
 export interface UnsubscribeResult {
   shopName: string;
@@ -34,7 +35,7 @@ export async function unsubscribeStatus(
  */
 export async function unsubscribe(
   token: string,
-  now = new Date(),
+  now = clock.now(),
 ): Promise<UnsubscribeResult | null> {
   if (!UNSUBSCRIBE_TOKEN.test(token)) return null;
   const conn = await db();

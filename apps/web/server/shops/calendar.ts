@@ -8,6 +8,7 @@ import { waitingSpans } from '../bench/jobs';
 import { db } from '../db';
 import { notFound } from '../errors';
 import type { Principal } from '../principal';
+import * as clock from '~/server/clock';
 
 export interface ShopCalendarView {
   shop: { id: number; name: string; timeZone: string };
@@ -114,7 +115,7 @@ export async function saveShopCalendar(
   input: ShopCalendarInput,
   options: { now?: Date } = {},
 ): Promise<SavedShopCalendar> {
-  const now = options.now ?? new Date();
+  const now = options.now ?? clock.now();
   const weekly: OpeningHours = Object.fromEntries(
     WEEKDAYS.filter((d) => input.weekly[d].length > 0).map((d) => [d, input.weekly[d]]),
   );

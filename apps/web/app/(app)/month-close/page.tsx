@@ -9,6 +9,7 @@ import { paymentsConfigured } from '~/server/payments/stripe';
 import { getMonthClose } from '~/server/queries/month-close';
 import { requirePagePrincipal } from '~/server/session';
 import { MonthCloseView } from './_components/month-close-view';
+import * as clock from '~/server/clock';
 
 export const metadata: Metadata = { title: 'Month close' };
 export const dynamic = 'force-dynamic';
@@ -18,7 +19,7 @@ export default async function MonthClosePage(props: {
 }) {
   const principal = await requirePagePrincipal();
   if (!can(principal.role, 'month-close:read')) return <NotAllowed />;
-  const now = new Date();
+  const now = clock.now();
   const fallback = lastEndedMonth(now);
   const asked = (await props.searchParams).month;
   const parsed = monthSchema.safeParse(typeof asked === 'string' ? asked : fallback);

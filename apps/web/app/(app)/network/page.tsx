@@ -17,6 +17,7 @@ import {
   todayIn,
   trendWindow,
 } from './_components/periods';
+import * as clock from '~/server/clock';
 
 export const metadata: Metadata = { title: 'Network' };
 export const dynamic = 'force-dynamic';
@@ -26,7 +27,7 @@ export default async function NetworkPage(props: {
 }) {
   const principal = await requirePagePrincipal();
   if (!can(principal.role, 'network:read')) return <NotAllowed />;
-  const asOf = new Date();
+  const asOf = clock.now();
   const today = todayIn('America/New_York', asOf);
   const { warrantyDays } = await networkSettingsUsed();
   const search = await props.searchParams;

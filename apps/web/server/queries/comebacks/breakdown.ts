@@ -6,6 +6,7 @@ import { db } from '../../db';
 import { notFound } from '../../errors';
 import type { Principal } from '../../principal';
 import { shopScope } from '../scope';
+import * as clock from '~/server/clock';
 
 export interface BreakdownRow {
   key: string;
@@ -38,7 +39,7 @@ export async function comebackBreakdown(
   principal: Principal,
   shopId: number,
   period: PeriodQuery,
-  asOf = new Date(),
+  asOf = clock.now(),
 ): Promise<ComebackBreakdown> {
   const conn = await db();
   const [shop] = await conn

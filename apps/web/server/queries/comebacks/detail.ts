@@ -24,6 +24,7 @@ import type { Principal } from '../../principal';
 import { applicableSteps } from '../bench';
 import { originalJob, readScope, reviewRights, scopeShops } from './shared';
 import { baseQuery, toRow, type ComebackRow } from './list';
+import * as clock from '~/server/clock';
 
 export interface JobFacts {
   id: number;
@@ -176,7 +177,7 @@ export async function redoCost(returnJobId: number, tx?: Pick<Tx, 'select'>) {
 export async function getComeback(
   principal: Principal,
   id: number,
-  now = new Date(),
+  now = clock.now(),
 ): Promise<ComebackDetail> {
   const conn = await db();
   const inScope = await scopeShops(principal);

@@ -25,6 +25,7 @@ import {
   reviewer,
   scopeShops,
 } from './shared';
+import * as clock from '~/server/clock';
 
 export interface ComebackRow {
   id: number;
@@ -175,7 +176,7 @@ export const LIST_LIMIT = 300;
 export async function listComebacks(
   principal: Principal,
   query: ComebackListQuery = {},
-  now = new Date(),
+  now = clock.now(),
 ): Promise<ComebackList> {
   const conn = await db();
   const chosen = await shopFilter(principal, query.shop, conn);

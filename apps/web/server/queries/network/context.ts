@@ -12,6 +12,7 @@ import { notFound } from '../../errors';
 import type { Principal } from '../../principal';
 import { shopScope } from '../scope';
 import type { ShopRef } from './types';
+import * as clock from '~/server/clock';
 
 /** What a network query runs against: a database (default: the app's) and the as-of instant. */
 export interface QueryContext {
@@ -22,7 +23,7 @@ export interface QueryContext {
 }
 
 export async function resolveContext(ctx: QueryContext = {}) {
-  return { conn: ctx.db ?? (await db()), asOf: ctx.asOf ?? new Date() };
+  return { conn: ctx.db ?? (await db()), asOf: ctx.asOf ?? clock.now() };
 }
 
 export interface NetworkSettingsUsed {

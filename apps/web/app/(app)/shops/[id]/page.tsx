@@ -19,6 +19,7 @@ import {
 } from '../../network/_components/periods';
 import { ComebackBreakdownPanel } from './_components/comeback-breakdown';
 import { ShopView } from './_components/shop-view';
+import * as clock from '~/server/clock';
 
 export const metadata: Metadata = { title: 'Shop' };
 export const dynamic = 'force-dynamic';
@@ -31,7 +32,7 @@ export default async function ShopPage(props: {
   if (!can(principal.role, 'shops:read')) return <NotAllowed />;
   const id = idParam.safeParse((await props.params).id);
   if (!id.success) notFound();
-  const asOf = new Date();
+  const asOf = clock.now();
   try {
     const { timeZone } = await visibleShop(principal, id.data);
     const today = todayIn(timeZone, asOf);

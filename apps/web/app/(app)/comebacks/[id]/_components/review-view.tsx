@@ -1,6 +1,7 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
+import { clientNow } from '~/lib/client-clock';
 import Link from 'next/link';
 import type { ReactNode } from 'react';
 import { Panel, StateBadge } from '~/components/ui';
@@ -43,7 +44,9 @@ export function ReviewView({ id }: { id: number }) {
         <h1 className="mt-1 flex flex-wrap items-center gap-3 text-3xl font-semibold tracking-tight text-slate-900">
           Comeback #{c.id}
           <ComebackStatusBadge status={c.status} attribution={c.attribution} />
-          {c.overdue && <PastDeadlineBadge days={daysPast(c.dueAt, new Date().toISOString())} />}
+          {c.overdue && (
+            <PastDeadlineBadge days={daysPast(c.dueAt, new Date(clientNow()).toISOString())} />
+          )}
           {counted && <CountedBadge />}
         </h1>
         <p className="mt-2 text-lg text-slate-700">

@@ -3,6 +3,7 @@
 import Link from 'next/link';
 import { useEffect, useState } from 'react';
 import { Panel } from '~/components/ui';
+import { clientNow } from '~/lib/client-clock';
 import { formatInZone } from '~/lib/format';
 import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
 import { formatMinutes } from '../../../_components/format';
@@ -18,12 +19,12 @@ const clock = (ms: number) => {
 /** The caller's timer on this job, the minutes logged so far, and minutes entered by hand. */
 export function BenchTimePanel({ job, canWrite }: { job: JobDetailJson; canWrite: boolean }) {
   const running = job.myRunningSince ? new Date(job.myRunningSince).getTime() : null;
-  const [now, setNow] = useState(() => Date.now());
+  const [now, setNow] = useState(() => clientNow());
   const [minutes, setMinutes] = useState('');
   const [fieldError, setFieldError] = useState<string | null>(null);
   useEffect(() => {
     if (running === null) return;
-    const timer = setInterval(() => setNow(Date.now()), 1000);
+    const timer = setInterval(() => setNow(clientNow()), 1000);
     return () => clearInterval(timer);
   }, [running]);
 

@@ -1,6 +1,7 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
+import { clientNow } from '~/lib/client-clock';
 import Link from 'next/link';
 import { useState, type ReactNode } from 'react';
 import { StateBadge } from '~/components/ui';
@@ -67,7 +68,7 @@ function JobHeader({ job, canWrite }: { job: JobDetailJson; canWrite: boolean })
   const late =
     job.promisedAt !== null &&
     job.readyAt === null &&
-    new Date(job.promisedAt).getTime() < Date.now();
+    new Date(job.promisedAt).getTime() < clientNow();
   const unticked = job.checklist.requiredUnticked;
 
   const onMove = (to: JobState) => {
