@@ -11,7 +11,7 @@ import {
 import Link from 'next/link';
 import Papa from 'papaparse';
 import { useState } from 'react';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 import type { NetworkComparisonResult, ShopFigures } from '~/server/queries/network';
 import { SeverityBadge } from '../../audits/_components/badges';
 import { BandBadge } from './band-badge';
