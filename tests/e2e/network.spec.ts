@@ -244,7 +244,11 @@ test.describe('network view', () => {
       ).toBeVisible();
       await expect(page.getByText(/^No audit rounds yet: this funnel appears/)).toBeVisible();
       await expect(shopTable(page).getByRole('button', { name: 'No rounds yet' })).toHaveCount(7);
-      // Charts draw once the page has hydrated; the explanations need it too.
+      // Charts draw once the page has hydrated and they scroll near; the explanations need
+      // hydration too.
+      await page
+        .getByRole('figure', { name: /Comeback rate against volume/ })
+        .scrollIntoViewIfNeeded();
       await expect(page.locator('.recharts-surface').first()).toBeVisible();
       // Explanations show on keyboard focus as well as on hover.
       const rate = shopTable(page)
