@@ -238,6 +238,10 @@ test.describe('owner in Chromium, on a page served from another port of the same
       );
     });
     await page.goto('/network');
+    // The funnel's drawing loads (a chunk of its own) once it scrolls near.
+    await page
+      .getByRole('figure', { name: /Comeback rate against volume/ })
+      .scrollIntoViewIfNeeded();
     await expect(page.locator('svg.recharts-surface').first()).toBeVisible();
     // A client-side navigation works only once React has hydrated.
     await page.getByRole('link', { name: 'Month close' }).click();

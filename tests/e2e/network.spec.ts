@@ -232,7 +232,11 @@ test.describe('network view', () => {
           name: /^Comebacks observed ÷ expected against comebacks expected/,
         }),
       ).toBeVisible();
-      // Charts draw once the page has hydrated; the explanations need it too.
+      // Charts draw once the page has hydrated and they scroll near; the explanations need
+      // hydration too.
+      await page
+        .getByRole('figure', { name: /^Comebacks observed ÷ expected against comebacks expected/ })
+        .scrollIntoViewIfNeeded();
       await expect(page.locator('.recharts-surface').first()).toBeVisible();
       // Explanations show on keyboard focus as well as on hover.
       const rate = shopTable(page)

@@ -11,7 +11,7 @@ import {
   PHOTO_STAGES,
   PHOTO_TYPES_TEXT,
   type PhotoStage,
-} from '~/lib/validators/photos';
+} from '~/lib/photos';
 import type { PhotoView } from '~/server/photos/service';
 
 interface UploadState {

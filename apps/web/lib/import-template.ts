@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import { IMPORT_FIELDS } from './validators/import-columns';
+import { IMPORT_FIELDS } from './import-columns';
 
 /** The template a shop lead fills in: every field's heading, an example row and a job still open. */
 export function importTemplateCsv(): string {

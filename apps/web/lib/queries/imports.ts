@@ -3,7 +3,7 @@ import type { ImportHistoryRow } from '~/server/imports/history';
 import type { ImportProgress, ImportSummary } from '~/server/imports/jobs';
 import { fetchJson } from '../api-client';
 import type { ImportRowError } from '../validators/imports';
-import type { ImportField } from '../validators/import-columns';
+import type { ImportField } from '../import-columns';
 
 export const importKeys = {
   history: ['imports', 'jobs'] as const,

@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { PhotoView, UploadTicket } from '~/server/photos/service';
-import { DECLARED_PHOTO_TYPE, PHOTO_TYPES_TEXT, type PhotoStage } from '../validators/photos';
+import { DECLARED_PHOTO_TYPE, PHOTO_TYPES_TEXT, type PhotoStage } from '../photos';
 import { fetchJson, ProblemError } from '../api-client';
 
 export const photoKeys = {

@@ -1,31 +1,18 @@
 import { AQLS } from '@reelwright/metrics';
 import { z } from 'zod';
+import {
+  ANSWER_RESULTS,
+  CORRECTIVE_ACTION_STATUSES,
+  INSPECTION_LEVELS,
+  ROUND_STATUSES,
+  roundPeriodError,
+} from '../audits';
 import { idNumber, idParam, localDate, text } from './common';
 
+export * from '../audits';
 export { localDate };
 
 // Zod schemas shared by the audit screens and the audit and corrective-action route handlers.
-
-export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S1', 'S2', 'S3', 'S4'] as const;
-export type InspectionLevelValue = (typeof INSPECTION_LEVELS)[number];
-export const SEVERITIES = ['normal', 'tightened', 'reduced', 'discontinued'] as const;
-export type SeverityValue = (typeof SEVERITIES)[number];
-export const ROUND_STATUSES = ['planned', 'in_progress', 'decided', 'cancelled'] as const;
-export type RoundStatusValue = (typeof ROUND_STATUSES)[number];
-export const ANSWER_RESULTS = ['pass', 'fail', 'not_applicable'] as const;
-export type AnswerResultValue = (typeof ANSWER_RESULTS)[number];
-export const VERDICTS = ['meets_standard', 'needs_work', 'critical_miss'] as const;
-export type VerdictValue = (typeof VERDICTS)[number];
-export const CORRECTIVE_ACTION_STATUSES = ['open', 'in_progress', 'done', 'verified'] as const;
-export type CorrectiveActionStatusValue = (typeof CORRECTIVE_ACTION_STATUSES)[number];
-
-/** The AQL columns of the standard's tables, as the planning form offers them. */
-export const AQL_CHOICES = AQLS;
-
-/** Longest period a round may cover: a lot is a batch of work, not a shop's whole history. */
-export const MAX_PERIOD_DAYS = 366;
-
-const dayNumber = (value: string) => Date.parse(`${value}T00:00:00Z`) / 86_400_000;
 
 const isAql = (v: number) => AQLS.some((a) => Math.abs(a - v) <= a * 1e-9);
 const AQL_MESSAGE = `Choose one of the standard's AQLs: ${AQLS.join(', ')}`;
@@ -41,22 +28,8 @@ const aqlNumber = z.number({ error: 'Choose an AQL' }).refine(isAql, AQL_MESSAGE
 const level = z.enum(INSPECTION_LEVELS, { error: 'Choose an inspection level' });
 
 function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) {
-  const from = dayNumber(value.from);
-  const to = dayNumber(value.to);
-  if (Number.isNaN(from) || Number.isNaN(to)) return;
-  if (to < from) {
-    ctx.addIssue({
-      code: 'custom',
-      path: ['to'],
-      message: 'The period must end on or after its start',
-    });
-  } else if (to - from + 1 > MAX_PERIOD_DAYS) {
-    ctx.addIssue({
-      code: 'custom',
-      path: ['to'],
-      message: `A round covers at most ${MAX_PERIOD_DAYS} days`,
-    });
-  }
+  const message = roundPeriodError(value.from, value.to);
+  if (message) ctx.addIssue({ code: 'custom', path: ['to'], message });
 }
 
 /** Query of GET /api/audit-rounds/preview: what a round for this shop and period would be. */
@@ -196,21 +169,3 @@ export const auditFormInput = z
     });
   });
 export type AuditFormInput = z.infer<typeof auditFormInput>;
-
-export type CorrectiveActionMover = 'shop_lead' | 'verifier';
-
-/**
- * The status changes a role may make: the shop lead moves an action along (open → in progress →
- * done); a regional manager or the owner verifies a done action, or sends it back to in progress.
- */
-export function correctiveActionMoves(
-  mover: CorrectiveActionMover | null,
-  status: CorrectiveActionStatusValue,
-): CorrectiveActionStatusValue[] {
-  if (mover === 'shop_lead') {
-    if (status === 'open') return ['in_progress', 'done'];
-    if (status === 'in_progress') return ['done'];
-  }
-  if (mover === 'verifier' && status === 'done') return ['verified', 'in_progress'];
-  return [];
-}

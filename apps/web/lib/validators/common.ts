@@ -1,5 +1,7 @@
-import { isValid, parse } from 'date-fns';
 import { z } from 'zod';
+import { FIRST_DATE, isCalendarDate, LAST_DATE } from '../dates';
+
+export { FIRST_DATE, isCalendarDate, LAST_DATE };
 
 // The building blocks every schema uses, so that no input the database or the date code cannot
 // take (a NUL, a lone surrogate, 30 February, an id past PostgreSQL's integer) gets past parsing.
@@ -61,16 +63,6 @@ export const queryInt = (min: number, max: number, error = 'Must be a whole numb
 /** Money in integer cents, 0 to `max`. */
 export const cents = (max: number, error = 'Cents as a whole number') =>
   z.number({ error }).int(error).min(0, 'Cannot be negative').max(max, `At most ${max} cents`);
-
-/** Earliest and latest dates and months the app takes: far past any reel's service history. */
-export const FIRST_DATE = '2000-01-01';
-export const LAST_DATE = '2099-12-31';
-
-/** True for "YYYY-MM-DD" that names a day that exists (no 30 February, no month 13). */
-export function isCalendarDate(value: string): boolean {
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(value)) return false;
-  return isValid(parse(value, 'yyyy-MM-dd', new Date(2000, 0, 1)));
-}
 
 /** A local calendar date "YYYY-MM-DD" that exists, between 2000 and 2099. */
 export const localDate = z

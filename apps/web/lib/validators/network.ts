@@ -1,18 +1,9 @@
 import { z } from 'zod';
-import { idParam, isCalendarDate, localDate } from './common';
+import { dayNumber, MAX_PERIOD_DAYS, TREND_METRICS } from '../network';
+import { idParam, localDate } from './common';
 
+export * from '../network';
 export { localDate };
-
-/** Longest period the comparison accepts: five years of local dates. */
-export const MAX_PERIOD_DAYS = 1_830;
-
-const DAY = 86_400_000;
-
-/** Day number of a "YYYY-MM-DD" civil date, or null when it is not a real calendar date. */
-export function dayNumber(date: string): number | null {
-  if (!isCalendarDate(date)) return null;
-  return Date.parse(`${date}T00:00:00Z`) / DAY;
-}
 
 function checkPeriod(value: { from: string; to: string }, ctx: z.RefinementCtx) {
   const a = dayNumber(value.from);
@@ -33,8 +24,6 @@ export const comparisonQuery = z
   .superRefine(checkPeriod);
 export type ComparisonQuery = z.infer<typeof comparisonQuery>;
 
-export const TREND_METRICS = ['comebacks', 'turnaround', 'revenue'] as const;
-export type TrendMetric = (typeof TREND_METRICS)[number];
 const metric = z.enum(TREND_METRICS, { error: 'Metric is comebacks, turnaround or revenue' });
 
 export const shopTrendsQuery = z
@@ -46,7 +35,3 @@ export const networkTrendsQuery = z
   .object({ from: localDate, to: localDate, region: idParam.optional(), metric })
   .superRefine(checkPeriod);
 export type NetworkTrendsQuery = z.infer<typeof networkTrendsQuery>;
-
-/** How turnaround is shown: business hours, or business days of the shop's average open day. */
-export const TURNAROUND_UNITS = ['hours', 'days'] as const;
-export type TurnaroundUnit = (typeof TURNAROUND_UNITS)[number];

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { idNumber, idParam, queryInt } from './common';
 
-export const REMINDER_WEEKS = [2, 4, 6, 8, 12, 26] as const;
+export { REMINDER_WEEKS } from '../reminders';
 
 const weeks = queryInt(1, 26, 'Must be a whole number of weeks');
 

@@ -4,7 +4,7 @@ import { notFound } from 'next/navigation';
 import { NotAllowed, PageHeader } from '~/components/ui';
 import { can } from '~/lib/permissions';
 import { comparisonQuery, networkTrendsQuery } from '~/lib/queries/network';
-import { TREND_METRICS } from '~/lib/validators/network';
+import { TREND_METRICS } from '~/lib/network';
 import { ApiError } from '~/server/errors';
 import { networkComparison, networkSettingsUsed, networkTrends } from '~/server/queries/network';
 import { requirePagePrincipal } from '~/server/session';

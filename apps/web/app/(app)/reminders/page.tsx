@@ -3,7 +3,7 @@ import type { Metadata } from 'next';
 import { NotAllowed, PageHeader } from '~/components/ui';
 import { can } from '~/lib/permissions';
 import { dueRemindersQuery, reminderBatchesQuery } from '~/lib/queries/reminders';
-import { REMINDER_WEEKS } from '~/lib/validators/reminders';
+import { REMINDER_WEEKS } from '~/lib/reminders';
 import { dueReminders } from '~/server/reminders/due';
 import { recentBatches } from '~/server/reminders/send';
 import { seasonDate } from '~/server/reminders/template';

@@ -3,7 +3,7 @@ import type {
   RoundStatusValue,
   SeverityValue,
   VerdictValue,
-} from '~/lib/validators/audits';
+} from '~/lib/audits';
 import {
   CORRECTIVE_ACTION_STATUS_LABELS,
   DECISION_LABELS,

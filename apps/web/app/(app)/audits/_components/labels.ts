@@ -5,7 +5,7 @@ import type {
   RoundStatusValue,
   SeverityValue,
   VerdictValue,
-} from '~/lib/validators/audits';
+} from '~/lib/audits';
 
 export const SEVERITY_LABELS: Record<SeverityValue, string> = {
   normal: 'Normal',

@@ -9,9 +9,10 @@ import { auditKeys, planPreviewQuery, sendJson } from '~/lib/queries/audits';
 import {
   AQL_CHOICES,
   INSPECTION_LEVELS,
-  planPreviewQuery as previewSchema,
+  roundPeriodError,
   type InspectionLevelValue,
-} from '~/lib/validators/audits';
+} from '~/lib/audits';
+import { localDateError } from '~/lib/dates';
 import type { PlannedRound } from '~/server/audits/plan';
 import { SeverityBadge } from './badges';
 import { formatLocalDate, formatPeriod, formLabel } from './format';
@@ -39,16 +40,21 @@ export function PlanForm({ shops, auditors, defaults, form }: Props) {
   const [auditorId, setAuditorId] = useState(auditors.length === 1 ? String(auditors[0]!.id) : '');
   const [auditorError, setAuditorError] = useState<string | null>(null);
 
-  const parsed = previewSchema.safeParse({ shopId, from, to, aql, level });
-  const fieldError = (field: string) =>
-    parsed.success ? undefined : parsed.error.issues.find((i) => i.path[0] === field)?.message;
+  // The same checks as the preview's query schema, without zod in the page: the shop, AQL and
+  // level come from lists, so only the dates can be wrong.
+  const errors = {
+    from: localDateError(from),
+    to: localDateError(to) ?? (localDateError(from) ? null : roundPeriodError(from, to)),
+  };
+  const valid = !errors.from && !errors.to;
+  const fieldError = (field: 'from' | 'to') => errors[field] ?? undefined;
   const preview = useQuery({
     ...planPreviewQuery(
-      parsed.success
-        ? parsed.data
+      valid
+        ? { shopId: Number(shopId), from, to, aql: Number(aql), level }
         : { shopId: defaults.shopId, from: defaults.from, to: defaults.to },
     ),
-    enabled: parsed.success,
+    enabled: valid,
     placeholderData: keepPreviousData,
   });
   const shop = shops.find((s) => String(s.id) === shopId);
@@ -69,7 +75,7 @@ export function PlanForm({ shops, auditors, defaults, form }: Props) {
     },
   });
 
-  const data = parsed.success ? preview.data : undefined;
+  const data = valid ? preview.data : undefined;
   const canDraw = Boolean(data && !data.blocked && data.plan && !preview.isPlaceholderData);
 
   const submit = (event: React.FormEvent) => {
@@ -212,7 +218,7 @@ export function PlanForm({ shops, auditors, defaults, form }: Props) {
         description="ISO 2859-1 single sampling (= ANSI/ASQ Z1.4, MIL-STD-105E)."
       >
         <div aria-live="polite" aria-busy={preview.isFetching}>
-          {!parsed.success ? (
+          {!valid ? (
             <p className="text-slate-700">Correct the period to see the plan.</p>
           ) : preview.isPending ? (
             <p className="text-slate-600">Counting the lot…</p>

@@ -6,7 +6,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { ProblemError } from '~/lib/api-client';
 import { auditKeys, sampleQuery, sendJson } from '~/lib/queries/audits';
-import { ANSWER_RESULTS, type AnswerResultValue, type VerdictValue } from '~/lib/validators/audits';
+import { ANSWER_RESULTS, type AnswerResultValue, type VerdictValue } from '~/lib/audits';
 import type { SavedSample } from '~/server/audits/score';
 import { VerdictBadge } from './badges';
 import { formatScore } from './format';

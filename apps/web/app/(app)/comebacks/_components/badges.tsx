@@ -3,7 +3,7 @@ import {
   COMEBACK_STATUS_LABELS,
   type AttributionValue,
   type ComebackStatusValue,
-} from '~/lib/validators/comebacks';
+} from '~/lib/comebacks';
 
 // Badges always carry their words; colour only repeats what the words say.
 

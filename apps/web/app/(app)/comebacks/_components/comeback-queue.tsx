@@ -7,7 +7,7 @@ import { useId } from 'react';
 import { Empty, Stat } from '~/components/ui';
 import { formatCount } from '~/lib/format';
 import { comebackListQuery } from '~/lib/queries/comebacks';
-import { COMEBACK_STATUS_LABELS, type ComebackStatusValue } from '~/lib/validators/comebacks';
+import { COMEBACK_STATUS_LABELS, type ComebackStatusValue } from '~/lib/comebacks';
 import type { ComebackRow } from '~/server/queries/comebacks';
 import { ComebackStatusBadge, PastDeadlineBadge } from './badges';
 import { daysPast, days, onDate } from './format';

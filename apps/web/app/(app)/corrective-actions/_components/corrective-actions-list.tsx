@@ -5,11 +5,8 @@ import Link from 'next/link';
 import { useId, useState } from 'react';
 import { Empty, Stat } from '~/components/ui';
 import { auditKeys, correctiveActionsQuery, sendJson } from '~/lib/queries/audits';
-import {
-  CORRECTIVE_ACTION_STATUSES,
-  type CorrectiveActionPatch,
-  type CorrectiveActionStatusValue,
-} from '~/lib/validators/audits';
+import { CORRECTIVE_ACTION_STATUSES, type CorrectiveActionStatusValue } from '~/lib/audits';
+import { type CorrectiveActionPatch } from '~/lib/validators/audits';
 import type { CorrectiveActionRow } from '~/server/queries/corrective-actions';
 import { CorrectiveActionStatusBadge, OverdueBadge } from '../../audits/_components/badges';
 import { formatInstant, formatLocalDate } from '../../audits/_components/format';

@@ -12,7 +12,6 @@ import {
   type IssueData,
   type MonthCloseData,
 } from '~/lib/queries/month-close';
-import { reopenInput } from '~/lib/validators/month-close';
 import { primary, secondary } from './controls';
 import { n } from './format';
 
@@ -61,8 +60,10 @@ export function OwnerActions({
       void queryClient.invalidateQueries({ queryKey: key });
     },
   });
-  const submitReopen = (event: FormEvent) => {
+  const submitReopen = async (event: FormEvent) => {
     event.preventDefault();
+    // The request schema (and zod with it) loads on the first submit, not with the page.
+    const { reopenInput } = await import('~/lib/validators/month-close');
     const parsed = reopenInput.safeParse({ reason });
     if (!parsed.success) {
       setReasonError(parsed.error.issues[0]?.message ?? 'Give a reason.');

@@ -11,7 +11,7 @@ import {
 import Link from 'next/link';
 import Papa from 'papaparse';
 import { useState } from 'react';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 import type { NetworkComparisonResult, ShopFigures } from '~/server/queries/network';
 import { SeverityBadge } from '../../audits/_components/badges';
 import { BandBadge } from './band-badge';
@@ -44,6 +44,14 @@ import { formatPeriod, viewHref } from './periods';
 
 const column = createColumnHelper<ShopFigures>();
 const orUndefined = (x: number | null) => (x === null ? undefined : x);
+
+// Long headings get room for two lines; otherwise the table's narrow figures would squeeze them
+// to a word a line.
+const HEAD_MIN_WIDTH: Record<string, string> = {
+  revenue: 'min-w-[7.5rem]',
+  realisation: 'min-w-[6.5rem]',
+  actions: 'min-w-[7.5rem]',
+};
 
 export function ComparisonTable(props: {
   data: NetworkComparisonResult;
@@ -265,7 +273,7 @@ export function ComparisonTable(props: {
       <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
         <p className="text-sm text-slate-600">
           Select a column heading to sort. Hover over or focus a figure for what it means.
-          <span className="xl:hidden"> Scroll the table sideways for every column.</span>
+          <span className="2xl:hidden"> Scroll the table sideways for every column.</span>
         </p>
         <button
           type="button"
@@ -288,6 +296,7 @@ export function ComparisonTable(props: {
                     return <td key={header.id} aria-hidden="true" />;
                   }
                   const first = header.column.id === 'shop';
+                  const minWidth = HEAD_MIN_WIDTH[header.column.id] ?? '';
                   return (
                     <th
                       key={header.id}
@@ -296,7 +305,7 @@ export function ComparisonTable(props: {
                       aria-sort={
                         leaf && sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined
                       }
-                      className={`px-2 py-2 align-bottom font-medium ${leaf ? 'border-b border-sand-300' : 'border-b border-sand-200 text-center'} ${first ? 'sticky left-0 z-10 bg-white pl-0 text-left' : leaf ? 'text-right' : ''}`}
+                      className={`px-2 py-2 align-bottom font-medium ${leaf ? 'border-b border-sand-300' : 'border-b border-sand-200 text-center'} ${first ? 'sticky left-0 z-10 bg-white pl-0 text-left' : leaf ? 'text-right' : ''} ${minWidth}`}
                     >
                       {leaf ? (
                         <button

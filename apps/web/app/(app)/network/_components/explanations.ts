@@ -1,5 +1,5 @@
-import type { SeverityValue } from '~/lib/validators/audits';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { SeverityValue } from '~/lib/audits';
+import type { TurnaroundUnit } from '~/lib/network';
 import type {
   ComebackFigures,
   NetworkComparisonResult,

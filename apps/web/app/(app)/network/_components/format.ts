@@ -1,5 +1,5 @@
 import type { FairnessBand, Interval } from '@reelwright/metrics';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 import type { RateFigures } from '~/server/queries/network';
 
 export const DASH = '—';

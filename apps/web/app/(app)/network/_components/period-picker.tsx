@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useId, useState, type FormEvent } from 'react';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 import {
   kindOf,
   monthOptions,

@@ -1,10 +1,5 @@
-import {
-  dayNumber,
-  localDate,
-  MAX_PERIOD_DAYS,
-  TURNAROUND_UNITS,
-  type TurnaroundUnit,
-} from '~/lib/validators/network';
+import { isLocalDate } from '~/lib/dates';
+import { dayNumber, MAX_PERIOD_DAYS, TURNAROUND_UNITS, type TurnaroundUnit } from '~/lib/network';
 
 // Periods are pairs of local dates; these helpers name them and list the presets of the picker.
 
@@ -210,8 +205,8 @@ export function readViewParams(
   const valid =
     from !== undefined &&
     to !== undefined &&
-    localDate.safeParse(from).success &&
-    localDate.safeParse(to).success &&
+    isLocalDate(from) &&
+    isLocalDate(to) &&
     to >= from &&
     dayNumber(to)! - dayNumber(from)! + 1 <= MAX_PERIOD_DAYS;
   if (!valid) {

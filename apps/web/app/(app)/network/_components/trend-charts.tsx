@@ -8,7 +8,7 @@ import {
 } from '~/components/charts/chart-figure';
 import { P_CHART_COLOURS, PChart } from '~/components/charts/p-chart';
 import { TrendLines } from '~/components/charts/trend-lines';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 import type { TrendsResult } from '~/server/queries/network';
 import {
   DASH,

@@ -2,7 +2,7 @@
 
 import { useSearchParams } from 'next/navigation';
 import { useState } from 'react';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 
 /** The turnaround unit in the address (`units=days`), business hours by default. */
 export function useUnit(): TurnaroundUnit {

@@ -13,7 +13,7 @@ import {
   sendRemindersRequest,
   type DueData,
 } from '~/lib/queries/reminders';
-import { REMINDER_WEEKS } from '~/lib/validators/reminders';
+import { REMINDER_WEEKS } from '~/lib/reminders';
 
 type Reminder = DueData['reels'][number]['reminder'];
 

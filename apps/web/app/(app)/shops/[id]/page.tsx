@@ -5,7 +5,7 @@ import { NotAllowed, PageHeader } from '~/components/ui';
 import { can } from '~/lib/permissions';
 import { shopMetricsQuery, shopTrendsQuery } from '~/lib/queries/network';
 import { idParam } from '~/lib/validators/common';
-import { TREND_METRICS } from '~/lib/validators/network';
+import { TREND_METRICS } from '~/lib/network';
 import { ApiError } from '~/server/errors';
 import { comebackBreakdown } from '~/server/queries/comebacks';
 import { shopMetrics, shopTrends, visibleShop } from '~/server/queries/network';

@@ -4,7 +4,6 @@ import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
 import { signInErrorMessage, WRONG_CREDENTIALS } from '~/lib/sign-in-errors';
-import { signInSchema } from '~/lib/validators/auth';
 
 export function SignInForm({ initialError = null }: { initialError?: string | null }) {
   const router = useRouter();
@@ -15,6 +14,8 @@ export function SignInForm({ initialError = null }: { initialError?: string | nu
   async function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const form = new FormData(event.currentTarget);
+    // The request schema (and zod with it) loads on the first submit, not with the page.
+    const { signInSchema } = await import('~/lib/validators/auth');
     const parsed = signInSchema.safeParse({
       email: form.get('email'),
       password: form.get('password'),

@@ -1,6 +1,6 @@
 'use client';
 
-import { IMPORT_FIELDS } from '~/lib/validators/import-columns';
+import { IMPORT_FIELDS } from '~/lib/import-columns';
 import { Step } from './import-step';
 import type { CsvImport, FileRead } from './use-csv-import';
 

@@ -1,7 +1,7 @@
 'use client';
 
 import { formatCount } from '~/lib/format';
-import { IMPORT_MAX_ROWS } from '~/lib/validators/import-columns';
+import { IMPORT_MAX_ROWS } from '~/lib/import-columns';
 import { Progress, Step } from './import-step';
 import type { CsvImport } from './use-csv-import';
 

@@ -1,4 +1,4 @@
-import { IMPORT_FIELDS } from '~/lib/validators/import-columns';
+import { IMPORT_FIELDS } from '~/lib/import-columns';
 import { Step } from './import-step';
 
 /** Step 1: the template to download, and what each of its columns means. */

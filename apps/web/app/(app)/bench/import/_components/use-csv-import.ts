@@ -3,14 +3,14 @@ import Papa from 'papaparse';
 import { useRef, useState, type ChangeEvent } from 'react';
 import { formatCount } from '~/lib/format';
 import { importKeys, sendImport, type ImportOutcome } from '~/lib/queries/imports';
-import { rowShapeErrors, validateImportRows, type ImportRowError } from '~/lib/validators/imports';
+import type { ImportRowError } from '~/lib/validators/imports';
 import {
   guessMapping,
   IMPORT_FIELDS,
   IMPORT_MAX_BYTES,
   IMPORT_MAX_ROWS,
   type ImportField,
-} from '~/lib/validators/import-columns';
+} from '~/lib/import-columns';
 import type { ImportProgress } from '~/server/imports/jobs';
 
 export interface FileRead {
@@ -118,6 +118,8 @@ export function useCsvImport(timeZone: string) {
     const errors: ImportRowError[] = [];
     const seenRefs = new Map<string, number>();
     const now = new Date();
+    // The row checks (and zod with them) load when a file is checked, not with the page.
+    const { rowShapeErrors, validateImportRows } = await import('~/lib/validators/imports');
     // In slices, so the page stays responsive and shows progress on a 50,000-row file.
     for (let start = 0; start < total; start += SLICE) {
       setPhase({ kind: 'checking', done: start, total });

@@ -10,7 +10,6 @@ import {
   type CustomerMatchJson,
   type JobDetailJson,
 } from '~/lib/queries/jobs';
-import { checkInInput, customerInput, reelInput } from '~/lib/validators/jobs';
 import type { FieldBinding } from './check-in-fields';
 
 export interface CheckInProps {
@@ -173,8 +172,10 @@ export function useCheckIn({ me, suggestion }: CheckInProps) {
     touch('serviceType');
   }
 
-  function onSubmit(event: FormEvent) {
+  async function onSubmit(event: FormEvent) {
     event.preventDefault();
+    // The request schema (and zod with it) loads on the first submit, not with the page.
+    const { checkInInput, customerInput, reelInput } = await import('~/lib/validators/jobs');
     setAttempt((n) => n + 1);
     const next: Errors = {};
     let customerBody: unknown;

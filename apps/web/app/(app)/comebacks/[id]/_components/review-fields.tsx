@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { AttributionValue } from '~/lib/validators/comebacks';
+import type { AttributionValue } from '~/lib/comebacks';
 
 // The review form's small pieces: choice cards, field errors and the words they use.
 

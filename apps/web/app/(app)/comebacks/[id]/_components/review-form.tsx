@@ -5,16 +5,15 @@ import { SaveBar } from '~/components/save-bar';
 import {
   ATTRIBUTION_LABELS,
   ATTRIBUTIONS,
-  comebackPatch,
   DISMISS_REASON_LABELS,
   DISMISS_REASONS,
   DISPOSITION_LABELS,
   DISPOSITIONS,
   type AttributionValue,
-  type ComebackPatchInput,
   type DismissReasonValue,
   type DispositionValue,
-} from '~/lib/validators/comebacks';
+} from '~/lib/comebacks';
+import type { ComebackPatchInput } from '~/lib/validators/comebacks';
 import type { ComebackDetail } from '~/server/queries/comebacks';
 import { ATTRIBUTION_HINTS, Choice, FIELD_NAMES, FieldError, input } from './review-fields';
 import { fieldErrors, useComebackMutation } from './use-comeback-mutation';
@@ -89,13 +88,15 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
     return null;
   };
 
-  const submit = () => {
+  const submit = async () => {
     setSaved(false);
     const patch = body();
     if (!patch) {
       setLocal({ status: 'Choose whether to confirm or dismiss the comeback' });
       return;
     }
+    // The request schema (and zod with it) loads on the first submit, not with the page.
+    const { comebackPatch } = await import('~/lib/validators/comebacks');
     const parsed = comebackPatch.safeParse(patch);
     if (!parsed.success) {
       const next: Record<string, string> = {};
@@ -131,7 +132,7 @@ export function ReviewForm({ comeback: c }: { comeback: ComebackDetail }) {
         className="space-y-6 p-5"
         onSubmit={(e) => {
           e.preventDefault();
-          submit();
+          void submit();
         }}
       >
         {summary.length > 0 && (

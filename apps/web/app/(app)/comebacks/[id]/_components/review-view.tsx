@@ -7,11 +7,7 @@ import type { ReactNode } from 'react';
 import { Panel, StateBadge } from '~/components/ui';
 import { JOB_STATE_LABELS, SERVICE_LABELS, type JobState } from '~/lib/labels';
 import { comebackDetailQuery } from '~/lib/queries/comebacks';
-import {
-  ATTRIBUTION_LABELS,
-  DISPOSITION_LABELS,
-  DISMISS_REASON_LABELS,
-} from '~/lib/validators/comebacks';
+import { ATTRIBUTION_LABELS, DISPOSITION_LABELS, DISMISS_REASON_LABELS } from '~/lib/comebacks';
 import type { ComebackDetail, JobFacts } from '~/server/queries/comebacks';
 import { ComebackStatusBadge, CountedBadge, PastDeadlineBadge } from '../../_components/badges';
 import { atTime, days, daysPast, formatMoney, onDate } from '../../_components/format';

@@ -4,7 +4,6 @@ import { useMutation } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
 import { useId, useState } from 'react';
 import { sendJson } from '~/lib/queries/audits';
-import { auditFormInput } from '~/lib/validators/audits';
 
 interface ItemDraft {
   key: number;
@@ -44,7 +43,7 @@ export function AuditFormEditor({
     });
   const total = items.reduce((t, i) => t + (Number(i.weight) || 0), 0);
 
-  const submit = (event: React.FormEvent) => {
+  const submit = async (event: React.FormEvent) => {
     event.preventDefault();
     const body = {
       title,
@@ -55,6 +54,8 @@ export function AuditFormEditor({
         weight: i.weight === '' ? undefined : Number(i.weight),
       })),
     };
+    // The request schema (and zod with it) loads on the first submit, not with the page.
+    const { auditFormInput } = await import('~/lib/validators/audits');
     const parsed = auditFormInput.safeParse(body);
     if (!parsed.success) {
       setErrors(Object.fromEntries(parsed.error.issues.map((i) => [i.path.join('.'), i.message])));

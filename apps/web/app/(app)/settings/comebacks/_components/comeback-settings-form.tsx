@@ -11,13 +11,8 @@ import {
   sendJson,
   type ComebackSettingsView,
 } from '~/lib/queries/comebacks';
-import {
-  ATTRIBUTION_LABELS,
-  ATTRIBUTIONS,
-  comebackSettingsInput,
-  type AttributionValue,
-  type ComebackSettingsInput,
-} from '~/lib/validators/comebacks';
+import { ATTRIBUTION_LABELS, ATTRIBUTIONS, type AttributionValue } from '~/lib/comebacks';
+import type { ComebackSettingsInput } from '~/lib/validators/comebacks';
 
 interface CauseDraft {
   /** Absent until saved. */
@@ -100,7 +95,7 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
   const edit = (i: number, patch: Partial<CauseDraft>) =>
     setCauses((list) => list.map((c, k) => (k === i ? { ...c, ...patch } : c)));
 
-  const submit = () => {
+  const submit = async () => {
     setSaved(false);
     const body = {
       warrantyDays: Number(warrantyDays),
@@ -109,6 +104,8 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
       countedAttributions: ATTRIBUTIONS.filter((a) => counted.includes(a)),
       rootCauses: causes.map((c) => ({ id: c.id, label: c.label, active: c.active })),
     };
+    // The request schema (and zod with it) loads on the first submit, not with the page.
+    const { comebackSettingsInput } = await import('~/lib/validators/comebacks');
     const parsed = comebackSettingsInput.safeParse({
       ...body,
       warrantyDays: warrantyDays.trim() === '' ? undefined : body.warrantyDays,
@@ -176,7 +173,7 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
       className="space-y-8"
       onSubmit={(e) => {
         e.preventDefault();
-        submit();
+        void submit();
       }}
     >
       {summary.length > 0 && (

@@ -1,7 +1,7 @@
 import Link from 'next/link';
 import { Panel } from '~/components/ui';
 import { formatCount } from '~/lib/format';
-import { ATTRIBUTION_LABELS } from '~/lib/validators/comebacks';
+import { ATTRIBUTION_LABELS } from '~/lib/comebacks';
 import type { BreakdownRow, ComebackBreakdown } from '~/server/queries/comebacks';
 import { formatPeriod } from '../../../network/_components/periods';
 

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 import type { ShopMetricsResult } from '~/server/queries/network';
 import { SeverityBadge } from '../../../audits/_components/badges';
 import { BandBadge } from '../../../network/_components/band-badge';

@@ -9,7 +9,7 @@ import { HISTOGRAM_COLOURS, HistogramChart } from '~/components/charts/histogram
 import { Panel } from '~/components/ui';
 import { JOB_STATE_LABELS } from '~/lib/labels';
 import { shopMetricsQuery, shopTrendsQuery, type PeriodParams } from '~/lib/queries/network';
-import type { TurnaroundUnit } from '~/lib/validators/network';
+import type { TurnaroundUnit } from '~/lib/network';
 import type { RevenueGroup, ShopMetricsResult } from '~/server/queries/network';
 import {
   formatCount,

@@ -7,7 +7,8 @@ import { formatInZone } from '~/lib/format';
 import { SERVICE_LABELS } from '~/lib/labels';
 import { comebackKeys, jobComebackQuery, sendJson } from '~/lib/queries/comebacks';
 import { jobKeys } from '~/lib/queries/jobs';
-import { COMEBACK_STATUS_LABELS, type ComebackLinkInput } from '~/lib/validators/comebacks';
+import { COMEBACK_STATUS_LABELS } from '~/lib/comebacks';
+import { type ComebackLinkInput } from '~/lib/validators/comebacks';
 import type { JobComeback } from '~/server/queries/comebacks';
 import { problemText } from './use-job-mutation';
 

@@ -3,7 +3,7 @@
 import { useState, type FormEvent } from 'react';
 import { Empty, Panel } from '~/components/ui';
 import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
-import { parseMoney, partInput } from '~/lib/validators/jobs';
+import { parseMoney } from '~/lib/jobs';
 import { formatCents } from '../../../_components/format';
 import { ErrorNote } from './error-note';
 import { useJobMutation } from './use-job-mutation';
@@ -22,8 +22,10 @@ export function PartsPanel({ job, canWrite }: { job: JobDetailJson; canWrite: bo
     sendJson<JobDetailJson>('DELETE', `/api/jobs/${job.id}/parts/${partId}`),
   );
 
-  function onSubmit(event: FormEvent) {
+  async function onSubmit(event: FormEvent) {
     event.preventDefault();
+    // The request schema (and zod with it) loads when a part is first added, not with the page.
+    const { partInput } = await import('~/lib/validators/jobs');
     const cents = parseMoney(form.unitPrice);
     const parsed = partInput.safeParse({
       name: form.name,
