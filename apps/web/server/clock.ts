@@ -9,12 +9,18 @@ import { env } from '~/env';
 // clock").
 //
 // Protocol timing is not business time and stays on the wall clock: session and JWT expiry,
-// sign-in throttling, webhook signature tolerance, presigned URL expiry and import heartbeats.
+// sign-in throttling, webhook signature tolerance, presigned URL expiry, import heartbeats and the
+// mail outbox's backoff (its rows are stamped by the database).
 
 const pinned = env.REELWRIGHT_NOW ? Date.parse(env.REELWRIGHT_NOW) : null;
-const startedAt = performance.now();
+
+// The wall-clock instant the pinned clock started, once per process: the server bundles this
+// module into several chunks, and every copy must tell the same time.
+const START = Symbol.for('reelwright.clock.start');
+const store = globalThis as typeof globalThis & { [START]?: number };
+const startedAt = (store[START] ??= Date.now());
 
 /** The current instant as the app sees it. */
 export function now(): Date {
-  return pinned === null ? new Date() : new Date(pinned + (performance.now() - startedAt));
+  return pinned === null ? new Date() : new Date(pinned + (Date.now() - startedAt));
 }

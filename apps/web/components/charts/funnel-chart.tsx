@@ -16,9 +16,19 @@ const Chart = dynamic(() => import('./funnel-chart-recharts').then((m) => m.Funn
 /** The funnel plot (see funnel-chart-recharts.tsx), drawn once it comes into view. */
 export function FunnelChart(props: FunnelChartProps) {
   const [ref, inView] = useInView<HTMLDivElement>();
+  // A funnel needs at least one shop with a volume to place; a region or period with none
+  // (nothing collected, no round decided yet) gets a line of text instead of a broken chart.
+  const points = props.points.filter((p) => Number.isFinite(p.trials) && p.trials > 0);
+  if (points.length === 0) {
+    return (
+      <p className="text-sm text-slate-600">
+        No shop in this view has figures for this chart in the period.
+      </p>
+    );
+  }
   return (
     <div ref={ref} style={{ height: props.height ?? 360 }}>
-      {inView && <Chart {...props} />}
+      {inView && <Chart {...props} points={points} />}
     </div>
   );
 }

@@ -106,7 +106,8 @@ export async function deliverPending(options: DeliverOptions = {}): Promise<Deli
   if (!options.transport && !smtpUrl) return { ...result, skipped: 'SMTP is not configured' };
   try {
     const conn = options.db ?? (await appDb());
-    const now = options.now ?? clock.now();
+    // Delivery timing is the wall clock's, as the database's default stamps the queued rows.
+    const now = options.now ?? new Date();
     const leaseUntil = new Date(now.getTime() + CLAIM_LEASE_MS);
     const due = conn
       .select({ id: emails.id })
