@@ -251,6 +251,20 @@ function startPgliteWorker(dataDir: string, socketDir: string): Promise<PgliteWo
   });
 }
 
+/**
+ * Whether other callers are using or waiting for the database right now: on the web server's
+ * embedded database (one connection, see `openIsolatedPglite`) background work checks this
+ * between its short transactions and lets requests go first. Always false in-process, where
+ * nothing else can run meanwhile, and on a PostgreSQL server, whose pool has room.
+ */
+export function othersWaiting(db: Db): boolean {
+  const pool = (db as unknown as { $client?: Partial<PgPool> & { options?: { max?: number } } })
+    .$client;
+  if (!pool || typeof pool.waitingCount !== 'number' || pool.options?.max !== 1) return false;
+  const active = (pool.totalCount ?? 0) - (pool.idleCount ?? 0);
+  return pool.waitingCount > 0 || active > 0;
+}
+
 export interface MigrateOptions {
   /** Folder holding the SQL files and meta/_journal.json; see `resolveMigrationsDir`. */
   migrationsFolder?: string;

@@ -183,6 +183,17 @@ describe('CSV import of past jobs', () => {
     expect(batch).toMatchObject({ status: 'failed', errorCount: 2, importedCount: 0 });
   });
 
+  it('numbers a bad row by its place in the whole file, however far in (parsed in pieces)', async () => {
+    const rows = importRows(6000);
+    rows[4999] = { ...rows[4999]!, reel_kind: 'trolling' };
+    const csv = toCsv(rows);
+    expect(csv.length).toBeGreaterThan(3 * 512 * 1024);
+    const prepared = await prepareImport(net.lead, file(csv));
+    expect(!prepared.ok && prepared.errors.map((e) => [e.row, e.column])).toEqual([
+      [5001, 'reel_kind'],
+    ]);
+  }, 30_000);
+
   it('takes everything back when storing fails part-way, and says so in the history', async () => {
     const prepared = await prepareImport(net.lead, file(toCsv(importRows(6000))));
     if (!prepared.ok) throw new Error('expected a clean file');

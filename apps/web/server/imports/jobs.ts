@@ -1,4 +1,5 @@
-import { and, desc, eq, isNotNull, isNull, lt, or, sql, type Tx } from '@reelwright/db';
+import { and, desc, eq, isNotNull, isNull, lt, or, sql, type Db, type Tx } from '@reelwright/db';
+import { othersWaiting } from '@reelwright/db/client';
 import {
   activityLog,
   benchSessions,
@@ -60,10 +61,10 @@ const reelKey = (
   `${customerId}|${r.kind}|${r.maker.toLowerCase()}|${r.model.toLowerCase()}|${(r.size ?? '').toLowerCase()}`;
 
 /** Customers or reels per transaction. */
-const ROW_CHUNK = 1_000;
+const ROW_CHUNK = 500;
 /** Jobs per transaction, each with its timeline and bench time (about five rows a job): a chunk
  * takes tens of milliseconds, so a request waiting behind one is not held up for long. */
-const JOB_CHUNK = 250;
+const JOB_CHUNK = 100;
 /** Shop-months of figures recomputed per transaction after the jobs are in. */
 const FIGURE_MONTHS_CHUNK = 3;
 /** An import whose heartbeat is older than this was cut off (a chunk commits within seconds). */
@@ -134,8 +135,9 @@ export async function runImport(
     .returning({ id: importBatches.id });
   const batchId = batch!.id;
   /** One chunk: its own transaction, which also says the import is alive. */
-  const chunk = <T>(write: (tx: Tx) => Promise<T>) =>
-    conn.transaction(async (tx) => {
+  const chunk = async <T>(write: (tx: Tx) => Promise<T>) => {
+    await giveWay(conn);
+    return conn.transaction(async (tx) => {
       const out = await write(tx);
       await tx
         .update(importBatches)
@@ -143,6 +145,7 @@ export async function runImport(
         .where(eq(importBatches.id, batchId));
       return out;
     });
+  };
 
   try {
     await progress({ step: 'customers', fraction: 0, done: 0, total });
@@ -385,6 +388,28 @@ export async function runImport(
   }
 }
 
+/** The longest the import waits for a quiet moment before its next chunk (it is never starved). */
+const GIVE_WAY_MAX_MS = 200;
+/** How long the database must stay free: a request between two of its queries is back by then. */
+const QUIET_MS = 2;
+const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
+
+/**
+ * Before each chunk, requests using or waiting for the embedded database go first (the web
+ * server's PGlite has one connection; see `othersWaiting`): an import is background work.
+ */
+async function giveWay(conn: Db) {
+  const until = performance.now() + GIVE_WAY_MAX_MS;
+  while (performance.now() < until) {
+    if (!othersWaiting(conn)) {
+      await sleep(QUIET_MS);
+      if (!othersWaiting(conn)) return;
+    } else {
+      await sleep(1);
+    }
+  }
+}
+
 function slices<T>(items: readonly T[], size: number): T[][] {
   const out: T[][] = [];
   for (let i = 0; i < items.length; i += size) out.push(items.slice(i, i + size));
@@ -461,6 +486,7 @@ export async function takeBackAbandonedImports(options: { all?: boolean } = {}):
 async function refreshAfterBulkLoad(conn: Awaited<ReturnType<typeof db>>) {
   // A table at a time, so that other requests are answered between them.
   for (const table of [jobs, jobEvents, benchSessions, customers, reels, shopMonthFigures]) {
+    await giveWay(conn);
     try {
       await conn.execute(sql`vacuum (analyze) ${table}`);
     } catch (error) {
