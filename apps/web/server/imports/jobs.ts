@@ -138,6 +138,9 @@ export async function runImport(
   const chunk = async <T>(write: (tx: Tx) => Promise<T>) => {
     await giveWay(conn);
     return conn.transaction(async (tx) => {
+      // A chunk needs no flush of its own: a crash takes the whole import back anyway, and the
+      // last transaction (the batch marked imported) commits synchronously, flushing them all.
+      await tx.execute(sql`set local synchronous_commit = off`);
       const out = await write(tx);
       await tx
         .update(importBatches)
