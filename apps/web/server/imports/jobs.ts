@@ -21,12 +21,12 @@ import { db } from '../db';
 import { conflict } from '../errors';
 import type { Principal } from '../principal';
 import { bulkInsert } from './bulk';
-import { invert, refuseDuplicate, yieldToEventLoop, type PreparedImport } from './prepare';
+import { invert, pacer, refuseDuplicate, yieldToEventLoop, type PreparedImport } from './prepare';
 import * as clock from '~/server/clock';
 
 // The second half of a CSV job import: storing a file prepare.ts has checked.
 
-const PREPARE_BATCH = 1_000;
+const PREPARE_BATCH = 250;
 
 /**
  * How far storing has got: `step` says what is being written, `fraction` is the whole import
@@ -95,6 +95,7 @@ export async function runImport(
   // Work that needs no database is done first, in slices with a turn for the event loop.
   const timelines: ReturnType<typeof timeline>[] = [];
   const turnarounds: (ReturnType<typeof jobTurnaround> | null)[] = [];
+  const pace = pacer();
   for (let i = 0; i < rows.length; i += PREPARE_BATCH) {
     for (const row of rows.slice(i, i + PREPARE_BATCH)) {
       timelines.push(timeline(row));
@@ -111,7 +112,7 @@ export async function runImport(
           : null,
       );
     }
-    await yieldToEventLoop();
+    await pace();
   }
   const progress = async (p: ImportProgress) => {
     await onProgress(p);

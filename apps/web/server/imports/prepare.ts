@@ -171,11 +171,27 @@ export async function prepareImport(
   return { ok: true, shop, file, digest, rows: valid, technicians };
 }
 
-const CHECK_BATCH = 1_000;
+const CHECK_BATCH = 250;
 export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /**
- * Papa Parse over the text half a megabyte at a time, pausing for the event loop between pieces:
+ * A turn for the event loop between slices of CPU-bound work, paced: when the slice ran longer
+ * than `budgetMs`, it waits as long again, so checking and preparing a large file takes about
+ * half of the web server's thread and requests keep being answered meanwhile.
+ */
+export function pacer(budgetMs = 15) {
+  let since = performance.now();
+  return async () => {
+    const worked = performance.now() - since;
+    await new Promise<void>((resolve) =>
+      worked > budgetMs ? setTimeout(resolve, worked) : setImmediate(resolve),
+    );
+    since = performance.now();
+  };
+}
+
+/**
+ * Papa Parse over the text 128 kB at a time, pausing for the event loop between pieces:
  * a 20 MB file parsed in one go would hold every other request up for seconds. Row numbers in
  * the errors count from the first data row of the whole file, as a one-go parse gives them.
  */
@@ -187,12 +203,13 @@ function parseIncrementally(text: string): Promise<{
   const data: Record<string, string>[] = [];
   const errors: Papa.ParseError[] = [];
   let fields: string[] | undefined;
+  const pace = pacer();
   return new Promise((resolve, reject) => {
     Papa.parse<Record<string, string>>(text, {
       header: true,
       skipEmptyLines: 'greedy',
       transformHeader: (h) => h.trim(),
-      chunkSize: 512 * 1024,
+      chunkSize: 128 * 1024,
       chunk: (results: Papa.ParseResult<Record<string, string>>, parser: Papa.Parser) => {
         fields ??= results.meta.fields;
         const base = data.length;
@@ -201,7 +218,7 @@ function parseIncrementally(text: string): Promise<{
         }
         for (const row of results.data) data.push(row);
         parser.pause();
-        setImmediate(() => parser.resume());
+        void pace().then(() => parser.resume());
       },
       complete: () => resolve({ data, errors, meta: { fields } }),
       error: (error: Error) => reject(error),
@@ -233,6 +250,7 @@ async function parseInBatches(
   if (missing.length || rowCount > IMPORT_MAX_ROWS) return { missing, rowCount, valid, errors };
 
   const seenRefs = new Map<string, number>();
+  const pace = pacer();
   for (let offset = 0; offset < rowCount; offset += CHECK_BATCH) {
     const records = parsed.data.slice(offset, offset + CHECK_BATCH);
     const rows = records.map((record) => {
@@ -252,7 +270,7 @@ async function parseInBatches(
     });
     valid.push(...checked.valid);
     errors.push(...checked.errors, ...rowShapeErrors(records, headers, offset));
-    await yieldToEventLoop();
+    await pace();
   }
   // Cell-count problems are reported above, row by row; other CSV problems (quotes) as Papa says.
   for (const e of parsed.errors) {
