@@ -62,8 +62,10 @@ const reelKey = (
 
 /** Customers or reels per transaction. */
 const ROW_CHUNK = 500;
-/** Jobs per transaction, each with its timeline and bench time (about five rows a job): a chunk
- * takes tens of milliseconds, so a request waiting behind one is not held up for long. */
+/**
+ * Jobs per transaction, each with its timeline and bench time (about five rows a job): a chunk
+ * takes tens of milliseconds, so a request waiting behind one is not held up for long.
+ */
 const JOB_CHUNK = 100;
 /** Shop-months of figures recomputed per transaction after the jobs are in. */
 const FIGURE_MONTHS_CHUNK = 3;
@@ -73,7 +75,7 @@ export const ABANDONED_AFTER_MS = 2 * 60_000;
 /**
  * Writes a prepared import in short transactions, so that other users' requests are answered
  * between them: the batch first (status `importing`), then customers and reels, then jobs a
- * thousand at a time with their timeline, bench time and business-time turnaround, each chunk
+ * hundred at a time with their timeline, bench time and business-time turnaround, each chunk
  * refreshing the batch's heartbeat; then the monthly figures of the months it touched are
  * recomputed (the trigger is deferred for the chunks: one recompute instead of one a chunk), and a
  * last transaction brings existing reels' last service up to date and marks the batch imported.
