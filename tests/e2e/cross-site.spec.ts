@@ -240,7 +240,7 @@ test.describe('owner in Chromium, on a page served from another port of the same
     await page.goto('/network');
     // The funnel's drawing loads (a chunk of its own) once it scrolls near.
     await page
-      .getByRole('figure', { name: /Comeback rate against volume/ })
+      .getByRole('figure', { name: /^Comebacks observed ÷ expected against comebacks expected/ })
       .scrollIntoViewIfNeeded();
     await expect(page.locator('svg.recharts-surface').first()).toBeVisible();
     // A client-side navigation works only once React has hydrated.
