@@ -142,6 +142,8 @@ async function signIn(base: string): Promise<string> {
 
 interface Poller {
   latencies: number[];
+  /** When each request was sent (performance.now()) and how long it took. */
+  samples: { at: number; ms: number }[];
   failures: number;
   stop(): Promise<void>;
 }
@@ -149,6 +151,7 @@ interface Poller {
 /** Sends a request every `POLL_MS` whether or not the previous one has answered. */
 function poll(url: string, headers: Record<string, string>): Poller {
   const latencies: number[] = [];
+  const samples: { at: number; ms: number }[] = [];
   const inFlight = new Set<Promise<void>>();
   let failures = 0;
   const timer = setInterval(() => {
@@ -158,6 +161,7 @@ function poll(url: string, headers: Record<string, string>): Poller {
         await response.arrayBuffer();
         if (!response.ok) failures++;
         latencies.push(performance.now() - started);
+        samples.push({ at: started, ms: performance.now() - started });
       })
       .catch(() => {
         failures++;
@@ -167,6 +171,7 @@ function poll(url: string, headers: Record<string, string>): Poller {
   }, POLL_MS);
   return {
     latencies,
+    samples,
     get failures() {
       return failures;
     },
@@ -180,6 +185,47 @@ function poll(url: string, headers: Record<string, string>): Poller {
 function summary(name: string, p: Poller) {
   const sorted = [...p.latencies].sort((a, b) => a - b);
   return `${name.padEnd(22)} ${String(sorted.length).padStart(5)} requests  p50 ${ms(quantile(sorted, 0.5)).padStart(8)}  p99 ${ms(quantile(sorted, 0.99)).padStart(8)}  max ${ms(sorted.at(-1) ?? NaN).padStart(8)}${p.failures ? `  (${p.failures} failed)` : ''}`;
+}
+
+/** The import's steps as its progress lines announce them, with when each first arrived. */
+function phaseLog() {
+  const marks: { at: number; step: string }[] = [];
+  let parsed = 0;
+  return {
+    marks,
+    seen(data: string) {
+      const lines = data.split('\n');
+      for (; parsed < lines.length - 1; parsed++) {
+        const line = JSON.parse(lines[parsed]!) as {
+          progress?: { step: string; done: number; total: number };
+        };
+        const p = line.progress;
+        const step = !p
+          ? (Object.keys(line)[0] ?? '?')
+          : p.step === 'jobs' && p.done === p.total
+            ? 'all jobs stored; figures and statistics'
+            : p.step;
+        if (marks.at(-1)?.step !== step) marks.push({ at: performance.now(), step });
+      }
+    },
+  };
+}
+
+/** The steps, and every request slower than 250 ms placed among them. */
+function timeline(t0: number, marks: { at: number; step: string }[], pollers: Poller[]) {
+  const s = (at: number) => ((at - t0) / 1000).toFixed(2).padStart(7);
+  const slow = pollers
+    .flatMap((p, i) => p.samples.filter((x) => x.ms > 250).map((x) => ({ ...x, i })))
+    .filter((x) => x.at >= t0)
+    .sort((a, b) => a.at - b.at);
+  const events = [
+    ...marks.map((m) => ({ at: m.at, line: `${s(m.at)}  ── ${m.step}` })),
+    ...slow.map((x) => ({
+      at: x.at,
+      line: `${s(x.at)}  ${x.i === 0 ? 'health' : 'list  '} ${ms(x.ms)}`,
+    })),
+  ].sort((a, b) => a.at - b.at);
+  return events.map((e) => e.line);
 }
 
 const IMPORTED_TABLES = ['customers', 'reels', 'jobs', 'job_events', 'bench_sessions'] as const;
@@ -334,6 +380,7 @@ async function main() {
     form.set('file', new Blob([csv], { type: 'text/csv' }), 'responsiveness.csv');
     form.set('mapping', JSON.stringify(identityMapping));
     const t0 = performance.now();
+    const phases = phaseLog();
     // node:http rather than fetch, whose 300 s wait for headers a loaded machine can exceed.
     const encoded = new Response(form);
     const payload = Buffer.from(await encoded.arrayBuffer());
@@ -354,7 +401,10 @@ async function main() {
           (answer) => {
             let data = '';
             answer.setEncoding('utf8');
-            answer.on('data', (chunk: string) => (data += chunk));
+            answer.on('data', (chunk: string) => {
+              data += chunk;
+              phases.seen(data);
+            });
             answer.on('end', () => resolve({ status: answer.statusCode ?? 0, text: data }));
           },
         );
@@ -379,6 +429,8 @@ async function main() {
     console.log(summary('GET /api/health', health));
     console.log(summary('GET /api/jobs (lead)', list));
     console.log(`import: ${(importMs / 1000).toFixed(2)} s (request to answer); now COPY…`);
+    console.log(`\nWhere the time went (seconds from the upload's start):`);
+    for (const line of timeline(t0, phases.marks, [health, list])) console.log(line);
     server.kill('SIGTERM');
     await new Promise((r) => server!.once('exit', r));
     server = null;

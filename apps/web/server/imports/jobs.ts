@@ -12,21 +12,19 @@ import {
   shopMonthFigures,
   type NewJobEvent,
 } from '@reelwright/db/schema';
-import { jobTurnaround } from '@reelwright/metrics';
-import type { JobState } from '~/lib/labels';
 import type { ParsedImportRow } from '~/lib/validators/imports';
-import { shopCalendar, localDate } from '../bench/calendar';
 import { pgError } from '../bench/shared';
 import { db } from '../db';
 import { conflict } from '../errors';
 import type { Principal } from '../principal';
 import { bulkInsert } from './bulk';
-import { invert, pacer, refuseDuplicate, yieldToEventLoop, type PreparedImport } from './prepare';
+import { invert, refuseDuplicate, yieldToEventLoop, type PreparedImport } from './prepare';
 import * as clock from '~/server/clock';
 
 // The second half of a CSV job import: storing a file prepare.ts has checked.
 
-const PREPARE_BATCH = 250;
+/** Rows looked at between two turns for the event loop, where the import only works in memory. */
+const ROWS_PER_TURN = 2000;
 
 /**
  * How far storing has got: `step` says what is being written, `fraction` is the whole import
@@ -90,32 +88,9 @@ export async function runImport(
 ): Promise<ImportSummary> {
   const started = performance.now();
   const { shop, rows, file } = prepared;
-  const calendar = shopCalendar(shop);
   const conn = await db();
   const total = rows.length;
   const note = `Imported from ${file.fileName}`;
-  // Work that needs no database is done first, in slices with a turn for the event loop.
-  const timelines: ReturnType<typeof timeline>[] = [];
-  const turnarounds: (ReturnType<typeof jobTurnaround> | null)[] = [];
-  const pace = pacer();
-  for (let i = 0; i < rows.length; i += PREPARE_BATCH) {
-    for (const row of rows.slice(i, i + PREPARE_BATCH)) {
-      timelines.push(timeline(row));
-      turnarounds.push(
-        row.readyAt
-          ? jobTurnaround(
-              {
-                checkedInAt: row.checkedInAt,
-                readyAt: row.readyAt,
-                waitingSpans: row.partsWait ? [row.partsWait] : [],
-              },
-              calendar,
-            )
-          : null,
-      );
-    }
-    await pace();
-  }
   const progress = async (p: ImportProgress) => {
     await onProgress(p);
     await yieldToEventLoop();
@@ -171,11 +146,11 @@ export async function runImport(
       if (c.email) customerIds.set(`e:${c.email.toLowerCase()}`, c.id);
     }
     const pendingCustomers = new Map<string, ParsedImportRow['customer']>();
-    for (const row of rows) {
+    await inTurns(rows, (row) => {
       const key = customerKey(row.customer);
       if (!customerIds.has(key) && !pendingCustomers.has(key))
         pendingCustomers.set(key, row.customer);
-    }
+    });
     let customersCreated = 0;
     for (const slice of slices([...pendingCustomers.values()], ROW_CHUNK)) {
       const created = await chunk((tx) =>
@@ -212,17 +187,17 @@ export async function runImport(
     const reelIds = new Map(knownReels.map((r) => [reelKey(r.customerId, r), r.id]));
     const servicedOn = new Map<string, string>();
     const pendingReels = new Map<string, { customerId: number; reel: ParsedImportRow['reel'] }>();
-    for (const row of rows) {
+    await inTurns(rows, (row) => {
       const customerId = customerOf(row);
       const key = reelKey(customerId, row.reel);
       if (!reelIds.has(key) && !pendingReels.has(key))
         pendingReels.set(key, { customerId, reel: row.reel });
-      if (row.readyAt) {
-        const day = localDate(row.readyAt, shop.timeZone);
+      const day = row.readyDay;
+      if (day) {
         const before = servicedOn.get(key);
         if (!before || before < day) servicedOn.set(key, day);
       }
-    }
+    });
     let reelsCreated = 0;
     for (const slice of slices([...pendingReels], ROW_CHUNK)) {
       const created = await chunk((tx) =>
@@ -265,17 +240,16 @@ export async function runImport(
     for (let from = 0; from < total; from += JOB_CHUNK) {
       const to = Math.min(from + JOB_CHUNK, total);
       const part = rows.slice(from, to);
-      const jobRows = part.map((row, k) => {
-        const i = from + k;
+      const jobRows = part.map((row) => {
         const customerId = customerOf(row);
-        const turnaround = turnarounds[i];
+        const turnaround = row.turnaround;
         return {
           shopId: shop.id,
           customerId,
           reelId: reelIds.get(reelKey(customerId, row.reel))!,
           serviceType: row.serviceType,
           state: row.state,
-          stateChangedAt: timelines[i]!.at(-1)!.at,
+          stateChangedAt: row.timeline.at(-1)!.at,
           technicianId: technicianOf(row),
           serviceStandardId: standardAt(row.checkedInAt),
           complaint: row.complaint,
@@ -305,9 +279,9 @@ export async function runImport(
         const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
         const eventRows: NewJobEvent[] = [];
         const sessionRows: (typeof benchSessions.$inferInsert)[] = [];
-        part.forEach((row, k) => {
+        part.forEach((row) => {
           const jobId = jobIdOf.get(row.externalRef)!;
-          for (const e of timelines[from + k]!) eventRows.push({ jobId, ...e, userId: null, note });
+          for (const e of row.timeline) eventRows.push({ jobId, ...e, userId: null, note });
           const technicianId = technicianOf(row);
           if (row.benchMinutes !== null && technicianId !== null) {
             sessionRows.push({ jobId, technicianId, minutes: row.benchMinutes, note });
@@ -322,11 +296,10 @@ export async function runImport(
     // The monthly figures of the months the jobs were ready or collected in, a few months a
     // transaction, computed from the jobs table as the trigger would have.
     const months = new Map<string, Date>();
-    for (const row of rows) {
-      for (const at of [row.readyAt, row.collectedAt]) {
-        if (at) months.set(localDate(at, shop.timeZone).slice(0, 7), at);
-      }
-    }
+    await inTurns(rows, (row) => {
+      if (row.readyAt) months.set(row.readyDay!.slice(0, 7), row.readyAt);
+      if (row.collectedAt) months.set(row.collectedDay!.slice(0, 7), row.collectedAt);
+    });
     for (const group of slices([...months.values()], FIGURE_MONTHS_CHUNK)) {
       await chunk((tx) =>
         tx.execute(
@@ -395,7 +368,7 @@ export async function runImport(
 }
 
 /** The longest the import waits for a quiet moment before its next chunk (it is never starved). */
-const GIVE_WAY_MAX_MS = 200;
+const GIVE_WAY_MAX_MS = 40;
 /** How long the database must stay free: a request between two of its queries is back by then. */
 const QUIET_MS = 2;
 const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
@@ -413,6 +386,14 @@ async function giveWay(conn: Db) {
     } else {
       await sleep(1);
     }
+  }
+}
+
+/** Calls `visit` for every row, handing the event loop a turn every few thousand rows. */
+async function inTurns<T>(rows: readonly T[], visit: (row: T) => void) {
+  for (let i = 0; i < rows.length; i += ROWS_PER_TURN) {
+    for (const row of rows.slice(i, i + ROWS_PER_TURN)) visit(row);
+    await yieldToEventLoop();
   }
 }
 
@@ -483,44 +464,36 @@ export async function takeBackAbandonedImports(options: { all?: boolean } = {}):
 }
 
 /**
- * After a bulk load, planner statistics and the visibility map for the tables it wrote (the
- * monthly figures its triggers rewrote among them), so the network view's index-only scans skip
- * the heap: PGlite has no autovacuum, and a server's comes later. VACUUM cannot run in the
- * transaction. The import has committed by now, so a failure here is logged rather than reported
- * as a failed import.
+ * After a bulk load: the visibility map of the tables it wrote (the monthly figures its triggers
+ * rewrote among them), so the network view's index-only scans skip the heap (PGlite has no
+ * autovacuum, and a server's comes later), and planner statistics for the columns the screens
+ * filter and join on. A whole-table ANALYZE of the jobs (their long free-text columns) holds the
+ * embedded database for over half a second; the columns named here take a fraction of that. Each
+ * statement is its own turn, so that other requests are answered between them. VACUUM cannot run
+ * in a transaction. The import has committed by now, so a failure is logged, not reported.
  */
 async function refreshAfterBulkLoad(conn: Awaited<ReturnType<typeof db>>) {
-  // A table at a time, so that other requests are answered between them.
-  for (const table of [jobs, jobEvents, benchSessions, customers, reels, shopMonthFigures]) {
+  const statements = [
+    sql`vacuum ${jobs}`,
+    sql`analyze ${jobs} (shop_id, state, technician_id, checked_in_at, ready_at, collected_at)`,
+    sql`vacuum ${jobEvents}`,
+    sql`analyze ${jobEvents} (job_id, at)`,
+    sql`vacuum ${benchSessions}`,
+    sql`analyze ${benchSessions} (job_id, technician_id)`,
+    sql`vacuum ${customers}`,
+    sql`analyze ${customers} (shop_id)`,
+    sql`vacuum ${reels}`,
+    sql`analyze ${reels} (customer_id)`,
+    sql`vacuum (analyze) ${shopMonthFigures}`,
+  ];
+  for (const statement of statements) {
     await giveWay(conn);
     try {
-      await conn.execute(sql`vacuum (analyze) ${table}`);
+      await conn.execute(statement);
     } catch (error) {
       console.warn('[import] refreshing statistics after the import failed:', error);
       return;
     }
     await yieldToEventLoop();
   }
-}
-
-/** The state changes an imported job went through, as far as the file tells them. */
-function timeline(
-  row: ParsedImportRow,
-): { fromState: JobState | null; toState: JobState; at: Date }[] {
-  const events: { fromState: JobState | null; toState: JobState; at: Date }[] = [];
-  const to = (state: JobState, at: Date) =>
-    events.push({ fromState: events.at(-1)?.toState ?? null, toState: state, at });
-  to('checked_in', row.checkedInAt);
-  if (row.state === 'checked_in') return events;
-  // When work started is not in the file: the bench begins at check-in.
-  to('on_bench', row.checkedInAt);
-  if (row.partsWait) {
-    to('waiting_parts', row.partsWait.from);
-    if (row.partsWait.to) to('on_bench', row.partsWait.to);
-  } else if (row.state === 'waiting_parts') {
-    to('waiting_parts', row.checkedInAt);
-  }
-  if (row.readyAt) to('ready', row.readyAt);
-  if (row.collectedAt) to('collected', row.collectedAt);
-  return events;
 }

@@ -1,23 +1,19 @@
 import { and, eq, isNotNull } from '@reelwright/db';
 import { importBatches, jobs, shops, users } from '@reelwright/db/schema';
-import Papa from 'papaparse';
 import { createHash } from 'node:crypto';
+import type { ImportRowError } from '~/lib/validators/imports';
 import {
-  rowShapeErrors,
-  validateImportRows,
-  type ImportRowError,
-  type ParsedImportRow,
-} from '~/lib/validators/imports';
-import {
-  IMPORT_FIELD_KEYS,
   IMPORT_MAX_ROWS,
   type ColumnMapping,
   type ImportField,
 } from '~/lib/validators/import-columns';
+import { shopCalendar } from '../bench/calendar';
 import { db } from '../db';
 import { badRequest, conflict, forbidden } from '../errors';
 import type { Principal } from '../principal';
 import * as clock from '~/server/clock';
+import type { CheckedRow } from './check';
+import { checkFileOffThread } from './check-thread';
 
 // The first half of a CSV job import: reading and checking the whole file before anything is
 // written (jobs.ts stores what passes).
@@ -35,7 +31,7 @@ export type PreparedImport =
       shop: typeof shops.$inferSelect;
       file: ImportFile;
       digest: string;
-      rows: ParsedImportRow[];
+      rows: CheckedRow[];
       technicians: Map<string, number>;
     };
 
@@ -99,8 +95,13 @@ export async function prepareImport(
   const digest = digestOf(file.bytes);
   await refuseDuplicate(shop.id, digest, file.fileName);
 
-  const text = new TextDecoder('utf-8').decode(file.bytes).replace(/^\uFEFF/, '');
-  const parsed = await parseInBatches(text, file.mapping, shop.timeZone, now);
+  const parsed = await checkFileOffThread({
+    bytes: file.bytes,
+    mapping: file.mapping,
+    timeZone: shop.timeZone,
+    calendar: shopCalendar(shop),
+    now,
+  });
   if (parsed.missing.length) {
     throw badRequest(
       'The column mapping names columns the file does not have.',
@@ -171,112 +172,4 @@ export async function prepareImport(
   return { ok: true, shop, file, digest, rows: valid, technicians };
 }
 
-const CHECK_BATCH = 250;
 export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
-
-/**
- * A turn for the event loop between slices of CPU-bound work, paced: when the slice ran longer
- * than `budgetMs`, it waits as long again, so checking and preparing a large file takes about
- * half of the web server's thread and requests keep being answered meanwhile.
- */
-export function pacer(budgetMs = 15) {
-  let since = performance.now();
-  return async () => {
-    const worked = performance.now() - since;
-    await new Promise<void>((resolve) =>
-      worked > budgetMs ? setTimeout(resolve, worked) : setImmediate(resolve),
-    );
-    since = performance.now();
-  };
-}
-
-/**
- * Papa Parse over the text 128 kB at a time, pausing for the event loop between pieces:
- * a 20 MB file parsed in one go would hold every other request up for seconds. Row numbers in
- * the errors count from the first data row of the whole file, as a one-go parse gives them.
- */
-function parseIncrementally(text: string): Promise<{
-  data: Record<string, string>[];
-  errors: Papa.ParseError[];
-  meta: { fields?: string[] };
-}> {
-  const data: Record<string, string>[] = [];
-  const errors: Papa.ParseError[] = [];
-  let fields: string[] | undefined;
-  const pace = pacer();
-  return new Promise((resolve, reject) => {
-    Papa.parse<Record<string, string>>(text, {
-      header: true,
-      skipEmptyLines: 'greedy',
-      transformHeader: (h) => h.trim(),
-      chunkSize: 128 * 1024,
-      chunk: (results: Papa.ParseResult<Record<string, string>>, parser: Papa.Parser) => {
-        fields ??= results.meta.fields;
-        const base = data.length;
-        for (const e of results.errors) {
-          errors.push(e.row === undefined ? e : { ...e, row: e.row + base });
-        }
-        for (const row of results.data) data.push(row);
-        parser.pause();
-        void pace().then(() => parser.resume());
-      },
-      complete: () => resolve({ data, errors, meta: { fields } }),
-      error: (error: Error) => reject(error),
-    });
-  });
-}
-
-/**
- * Parses the CSV, then checks it 1,000 rows at a time, handing the event loop a turn between
- * slices so that other requests are answered while a large file is checked.
- */
-async function parseInBatches(
-  text: string,
-  mapping: ColumnMapping,
-  timeZone: string,
-  now: Date,
-): Promise<{
-  missing: [string, string][];
-  rowCount: number;
-  valid: ParsedImportRow[];
-  errors: ImportRowError[];
-}> {
-  const parsed = await parseIncrementally(text);
-  const headers = parsed.meta.fields ?? [];
-  const missing = Object.entries(mapping).filter(([, header]) => !headers.includes(header));
-  const rowCount = parsed.data.length;
-  const valid: ParsedImportRow[] = [];
-  const errors: ImportRowError[] = [];
-  if (missing.length || rowCount > IMPORT_MAX_ROWS) return { missing, rowCount, valid, errors };
-
-  const seenRefs = new Map<string, number>();
-  const pace = pacer();
-  for (let offset = 0; offset < rowCount; offset += CHECK_BATCH) {
-    const records = parsed.data.slice(offset, offset + CHECK_BATCH);
-    const rows = records.map((record) => {
-      const row: Partial<Record<ImportField, string>> = {};
-      for (const key of IMPORT_FIELD_KEYS) {
-        const header = mapping[key];
-        if (header) row[key] = record[header] ?? '';
-      }
-      return row;
-    });
-    const checked = validateImportRows(rows, {
-      timeZone,
-      now,
-      mapping,
-      seenRefs,
-      rowOffset: offset,
-    });
-    valid.push(...checked.valid);
-    errors.push(...checked.errors, ...rowShapeErrors(records, headers, offset));
-    await pace();
-  }
-  // Cell-count problems are reported above, row by row; other CSV problems (quotes) as Papa says.
-  for (const e of parsed.errors) {
-    if (e.type !== 'FieldMismatch' && e.row !== undefined) {
-      errors.push({ row: e.row + 2, message: `The CSV cannot be read here: ${e.message}` });
-    }
-  }
-  return { missing, rowCount, valid, errors };
-}

@@ -110,6 +110,7 @@ describe('job list', () => {
   it('technician – sees only their shop, newest check-in first, with the total for paging', async () => {
     const page = await list(net.as.tech);
     expect(page.total).toBe(33);
+    expect(page.totalExact).toBe(true);
     expect(page.jobs).toHaveLength(25);
     expect(page.jobs.every((j) => j.shopName === 'Dune Test Shop')).toBe(true);
     const times = page.jobs.map((j) => j.checkedInAt.getTime());
@@ -118,6 +119,20 @@ describe('job list', () => {
     expect(second.jobs).toHaveLength(8);
     const ids = new Set([...page.jobs, ...second.jobs].map((j) => j.id));
     expect(ids.size).toBe(33);
+  });
+
+  it('counts matching jobs up to a cap, then says "more than" and still pages', async () => {
+    const query = jobListQuery.parse({});
+    const capped = await listJobs(net.as.tech, query, { now: NOW, countCap: 30 });
+    expect(capped).toMatchObject({ total: 30, totalExact: false });
+    expect(capped.jobs).toHaveLength(25);
+    const next = await listJobs(net.as.tech, jobListQuery.parse({ page: '2' }), {
+      now: NOW,
+      countCap: 30,
+    });
+    expect(next.jobs).toHaveLength(8);
+    const atCap = await listJobs(net.as.tech, query, { now: NOW, countCap: 33 });
+    expect(atCap).toMatchObject({ total: 33, totalExact: true });
   });
 
   it('technician – filters by state, technician and service', async () => {

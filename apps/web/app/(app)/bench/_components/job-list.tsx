@@ -74,7 +74,9 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
   const pageSize = Number(params.pageSize ?? 25);
   const page = Number(params.page ?? 1);
   const total = data?.total ?? 0;
-  const pageCount = Math.max(1, Math.ceil(total / pageSize));
+  // Past the count's cap the list says "more than", and one page more can always be asked for.
+  const exact = data?.totalExact ?? true;
+  const pageCount = Math.max(1, Math.ceil(total / pageSize) + (exact ? 0 : 1), exact ? 1 : page + 1);
   const asOf = data?.asOf;
 
   const columns = useMemo(() => jobColumns(multiShop), [multiShop]);
@@ -105,7 +107,7 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
     (k) => !['sort', 'dir', 'page', 'pageSize'].includes(k),
   );
   const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
-  const last = Math.min(total, page * pageSize);
+  const last = (page - 1) * pageSize + (data?.jobs.length ?? 0);
 
   return (
     <div className="rounded-lg border border-sand-200 bg-white shadow-sm">
@@ -142,7 +144,7 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
             <>
               {total === 0
                 ? 'No jobs'
-                : `${formatCount(first)}–${formatCount(last)} of ${formatCount(total)} jobs`}
+                : `${formatCount(first)}–${formatCount(last)} of ${exact ? '' : 'more than '}${formatCount(total)} jobs`}
               {isFetching && <span className="ml-2 text-slate-600">Updating…</span>}
             </>
           ) : (
