@@ -55,9 +55,7 @@ export interface CheckResult {
 export const CHECKED_PIECE = 1000;
 
 export type CheckMessage =
-  | { rows: CheckedRow[] }
-  | { done: Omit<CheckResult, 'valid'> }
-  | { failed: string };
+  { rows: CheckedRow[] } | { done: Omit<CheckResult, 'valid'> } | { failed: string };
 
 const CHECK_BATCH = 1000;
 
@@ -87,7 +85,13 @@ export function checkFile(input: CheckInput): CheckResult {
       }
       return row;
     });
-    const checked = validateImportRows(rows, { timeZone, now, mapping, seenRefs, rowOffset: offset });
+    const checked = validateImportRows(rows, {
+      timeZone,
+      now,
+      mapping,
+      seenRefs,
+      rowOffset: offset,
+    });
     for (const row of checked.valid) valid.push(derive(row, input.calendar));
     errors.push(...checked.errors, ...rowShapeErrors(records, headers, offset));
   }

@@ -214,9 +214,7 @@ export async function listJobs(
     .where(where)
     .limit(cap + 1)
     .as('matching');
-  const [counted] = await conn
-    .select({ n: sql<number>`count(*)`.mapWith(Number) })
-    .from(matching);
+  const [counted] = await conn.select({ n: sql<number>`count(*)`.mapWith(Number) }).from(matching);
   const matched = counted?.n ?? 0;
   const total = Math.min(matched, cap);
   // The page's ids come from the jobs table alone (customers joined only to sort by name), so

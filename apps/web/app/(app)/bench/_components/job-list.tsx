@@ -76,7 +76,11 @@ export function JobList({ shops, technicians, invalidQuery }: Props) {
   const total = data?.total ?? 0;
   // Past the count's cap the list says "more than", and one page more can always be asked for.
   const exact = data?.totalExact ?? true;
-  const pageCount = Math.max(1, Math.ceil(total / pageSize) + (exact ? 0 : 1), exact ? 1 : page + 1);
+  const pageCount = Math.max(
+    1,
+    Math.ceil(total / pageSize) + (exact ? 0 : 1),
+    exact ? 1 : page + 1,
+  );
   const asOf = data?.asOf;
 
   const columns = useMemo(() => jobColumns(multiShop), [multiShop]);
