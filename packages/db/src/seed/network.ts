@@ -329,11 +329,12 @@ export const SHOPS: readonly ShopDef[] = [
     queueMedian: 240,
     waitChance: 1,
     waitMedian: 650,
-    // Skips drag-stack steps, and its comebacks trace back to them.
+    // Skips drag-stack steps, and its comebacks trace back to them (more so in the last three
+    // months: see DRAG_COMEBACK_CHANCE_RECENT); its lead reviews returns the next day.
     dragSkip: 0.42,
     comebackCounted: 0.035,
     returnMedianDays: 20,
-    reviewMedianDays: 4,
+    reviewMedianDays: 1,
   },
 ];
 

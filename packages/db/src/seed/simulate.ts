@@ -184,8 +184,15 @@ const DISMISS_REASONS = [
 const UNCOUNTED_CHANCE = 0.012;
 /** Median days from collection to the return of a reel whose drag stack was not serviced. */
 const DRAG_RETURN_DAYS = 5;
-/** Chance that a reel whose drag stack was skipped comes back for workmanship. */
+/** Chance that a reel whose drag stack was skipped comes back for workmanship… */
 const DRAG_COMEBACK_CHANCE = 0.19;
+/**
+ * …and for those collected in the last three months before "now": Brackwater Flats' new
+ * technician skips the drag stack on the heavy reels too, so its latest months are out of line
+ * on their own, not only over a year.
+ */
+const DRAG_COMEBACK_CHANCE_RECENT = 0.3;
+const RECENT_MS = 91 * DAY;
 
 function clamp(x: number, lo: number, hi: number): number {
   return Math.min(hi, Math.max(lo, x));
@@ -694,7 +701,11 @@ export function generate(options: GenerateOptions): SeedData {
       if (counted) job.shop.quotaCredit -= 1;
     } else if (def.slug === 'brackwater-flats') {
       counted = rng.chance(
-        job.skipped.has('drag.washers') ? DRAG_COMEBACK_CHANCE : def.comebackCounted,
+        !job.skipped.has('drag.washers')
+          ? def.comebackCounted
+          : job.collectedAt >= nowMs - RECENT_MS
+            ? DRAG_COMEBACK_CHANCE_RECENT
+            : DRAG_COMEBACK_CHANCE,
       );
     } else {
       counted = rng.chance(def.comebackCounted);
