@@ -112,13 +112,20 @@ export async function runImport(
     })
     .returning({ id: importBatches.id });
   const batchId = batch!.id;
-  /** One chunk: its own transaction, which also says the import is alive. */
-  const chunk = async <T>(write: (tx: Tx) => Promise<T>) => {
+  /**
+   * One chunk: its own transaction, which also says the import is alive. `deferFigures` for jobs:
+   * the monthly figures are recomputed once, after the last chunk (below).
+   */
+  const chunk = async <T>(write: (tx: Tx) => Promise<T>, options = { deferFigures: false }) => {
     await giveWay(conn);
     return conn.transaction(async (tx) => {
       // A chunk needs no flush of its own: a crash takes the whole import back anyway, and the
       // last transaction (the batch marked imported) commits synchronously, flushing them all.
-      await tx.execute(sql`set local synchronous_commit = off`);
+      // Both settings in one statement: a round trip less per chunk.
+      await tx.execute(
+        sql`select set_config('synchronous_commit', 'off', true),
+                   set_config('reelwright.defer_figures', ${options.deferFigures ? 'on' : 'off'}, true)`,
+      );
       const out = await write(tx);
       await tx
         .update(importBatches)
@@ -269,27 +276,33 @@ export async function runImport(
           externalRef: row.externalRef,
         } satisfies typeof jobs.$inferInsert;
       });
-      await chunk(async (tx) => {
-        // The monthly figures are recomputed once, after the last chunk (below).
-        await tx.execute(sql`set local reelwright.defer_figures = 'on'`);
-        const inserted = await bulkInsert<{ id: number; external_ref: string }>(tx, jobs, jobRows, {
-          chunk: JOB_CHUNK,
-          returning: 'id, external_ref',
-        });
-        const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
-        const eventRows: NewJobEvent[] = [];
-        const sessionRows: (typeof benchSessions.$inferInsert)[] = [];
-        part.forEach((row) => {
-          const jobId = jobIdOf.get(row.externalRef)!;
-          for (const e of row.timeline) eventRows.push({ jobId, ...e, userId: null, note });
-          const technicianId = technicianOf(row);
-          if (row.benchMinutes !== null && technicianId !== null) {
-            sessionRows.push({ jobId, technicianId, minutes: row.benchMinutes, note });
-          }
-        });
-        await bulkInsert(tx, jobEvents, eventRows, { chunk: 10_000 });
-        await bulkInsert(tx, benchSessions, sessionRows, { chunk: 10_000 });
-      });
+      await chunk(
+        async (tx) => {
+          const inserted = await bulkInsert<{ id: number; external_ref: string }>(
+            tx,
+            jobs,
+            jobRows,
+            {
+              chunk: JOB_CHUNK,
+              returning: 'id, external_ref',
+            },
+          );
+          const jobIdOf = new Map(inserted.map((j) => [j.external_ref, Number(j.id)]));
+          const eventRows: NewJobEvent[] = [];
+          const sessionRows: (typeof benchSessions.$inferInsert)[] = [];
+          part.forEach((row) => {
+            const jobId = jobIdOf.get(row.externalRef)!;
+            for (const e of row.timeline) eventRows.push({ jobId, ...e, userId: null, note });
+            const technicianId = technicianOf(row);
+            if (row.benchMinutes !== null && technicianId !== null) {
+              sessionRows.push({ jobId, technicianId, minutes: row.benchMinutes, note });
+            }
+          });
+          await bulkInsert(tx, jobEvents, eventRows, { chunk: 10_000 });
+          await bulkInsert(tx, benchSessions, sessionRows, { chunk: 10_000 });
+        },
+        { deferFigures: true },
+      );
       await progress({ step: 'jobs', fraction: 0.12 + (0.85 * to) / total, done: to, total });
     }
 
