@@ -23,3 +23,16 @@ export async function fetchJson<T>(input: string, init?: RequestInit): Promise<T
   }
   return (await response.json()) as T;
 }
+
+/** A JSON request (`body` as JSON when given) whose answer is JSON; problems throw `ProblemError`. */
+export function sendJson<T>(
+  method: 'POST' | 'PATCH' | 'PUT' | 'DELETE',
+  url: string,
+  body?: unknown,
+) {
+  return fetchJson<T>(url, {
+    method,
+    headers: body === undefined ? undefined : { 'content-type': 'application/json' },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+}

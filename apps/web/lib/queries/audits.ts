@@ -66,12 +66,3 @@ export const correctiveActionsQuery = (query: CorrectiveActionListQuery = {}) =>
         `/api/corrective-actions${search({ shopId: query.shopId, status: query.status })}`,
       ),
   });
-
-/** JSON request helper for the audit mutations. */
-export function sendJson<T>(url: string, method: 'POST' | 'PUT' | 'PATCH', body?: unknown) {
-  return fetchJson<T>(url, {
-    method,
-    headers: { 'content-type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-}

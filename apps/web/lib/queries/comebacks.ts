@@ -51,11 +51,3 @@ export const comebackSettingsQuery = () =>
     queryKey: comebackKeys.settings,
     queryFn: () => fetchJson<ComebackSettingsView>('/api/settings/comebacks'),
   });
-
-export function sendJson<T>(url: string, method: 'POST' | 'PATCH' | 'PUT', body: unknown) {
-  return fetchJson<T>(url, {
-    method,
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify(body),
-  });
-}

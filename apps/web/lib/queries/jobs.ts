@@ -60,17 +60,5 @@ export const customerSearchQuery = (query: string) =>
     staleTime: 60_000,
   });
 
-export function sendJson<T>(
-  method: 'POST' | 'PATCH' | 'PUT' | 'DELETE',
-  url: string,
-  body?: unknown,
-) {
-  return fetchJson<T>(url, {
-    method,
-    headers: body === undefined ? undefined : { 'content-type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-}
-
 /** A value as it travels to the client: the same JSON round trip as an API answer. */
 export const asJson = <T>(value: T) => JSON.parse(JSON.stringify(value)) as Json<T>;

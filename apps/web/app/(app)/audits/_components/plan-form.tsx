@@ -4,8 +4,8 @@ import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tansta
 import { useRouter } from 'next/navigation';
 import { useId, useState } from 'react';
 import { Panel } from '~/components/ui';
-import { ProblemError } from '~/lib/api-client';
-import { auditKeys, planPreviewQuery, sendJson } from '~/lib/queries/audits';
+import { ProblemError, sendJson } from '~/lib/api-client';
+import { auditKeys, planPreviewQuery } from '~/lib/queries/audits';
 import {
   AQL_CHOICES,
   INSPECTION_LEVELS,
@@ -61,7 +61,7 @@ export function PlanForm({ shops, auditors, defaults, form }: Props) {
 
   const plan = useMutation({
     mutationFn: () =>
-      sendJson<PlannedRound>('/api/audit-rounds', 'POST', {
+      sendJson<PlannedRound>('POST', '/api/audit-rounds', {
         shopId: Number(shopId),
         from,
         to,

@@ -1,13 +1,14 @@
 'use client';
 
 import { useMutation } from '@tanstack/react-query';
-import { sendJson } from '~/lib/queries/audits';
+
+import { sendJson } from '~/lib/api-client';
 import type { RedrawCheck as RedrawResult } from '~/server/queries/audits';
 
 /** "Redraw and compare": the server redraws from the stored seed and lot; we show the verdict. */
 export function RedrawCheck({ roundId }: { roundId: number }) {
   const check = useMutation({
-    mutationFn: () => sendJson<RedrawResult>(`/api/audit-rounds/${roundId}/redraw-check`, 'POST'),
+    mutationFn: () => sendJson<RedrawResult>('POST', `/api/audit-rounds/${roundId}/redraw-check`),
   });
   const result = check.data;
   return (

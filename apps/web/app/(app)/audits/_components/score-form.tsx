@@ -4,8 +4,8 @@ import { scoreAudit, type AuditAnswer } from '@reelwright/metrics';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { ProblemError } from '~/lib/api-client';
-import { auditKeys, sampleQuery, sendJson } from '~/lib/queries/audits';
+import { ProblemError, sendJson } from '~/lib/api-client';
+import { auditKeys, sampleQuery } from '~/lib/queries/audits';
 import { ANSWER_RESULTS, type AnswerResultValue, type VerdictValue } from '~/lib/audits';
 import type { SavedSample } from '~/server/audits/score';
 import { VerdictBadge } from './badges';
@@ -36,7 +36,7 @@ export function ScoreForm({ roundId, jobId }: { roundId: number; jobId: number }
 
   const save = useMutation({
     mutationFn: (final: boolean) =>
-      sendJson<SavedSample>(`/api/audit-rounds/${roundId}/samples/${jobId}`, 'PUT', {
+      sendJson<SavedSample>('PUT', `/api/audit-rounds/${roundId}/samples/${jobId}`, {
         answers: Object.entries(draft)
           .filter(([, a]) => a.result)
           .map(([itemId, a]) => ({

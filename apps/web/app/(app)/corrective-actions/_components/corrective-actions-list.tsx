@@ -3,8 +3,9 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useId, useState } from 'react';
+import { sendJson } from '~/lib/api-client';
 import { Empty, Stat } from '~/components/ui';
-import { auditKeys, correctiveActionsQuery, sendJson } from '~/lib/queries/audits';
+import { auditKeys, correctiveActionsQuery } from '~/lib/queries/audits';
 import { CORRECTIVE_ACTION_STATUSES, type CorrectiveActionStatusValue } from '~/lib/audits';
 import { type CorrectiveActionPatch } from '~/lib/validators/audits';
 import type { CorrectiveActionRow } from '~/server/queries/corrective-actions';
@@ -101,7 +102,7 @@ function ActionCard({ action }: { action: CorrectiveActionRow }) {
   const [dueOn, setDueOn] = useState(action.dueOn);
   const patch = useMutation({
     mutationFn: (body: CorrectiveActionPatch) =>
-      sendJson<CorrectiveActionRow>(`/api/corrective-actions/${action.id}`, 'PATCH', body),
+      sendJson<CorrectiveActionRow>('PATCH', `/api/corrective-actions/${action.id}`, body),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: auditKeys.allCorrectiveActions }),
   });
   const lead = action.moves.includes('done');

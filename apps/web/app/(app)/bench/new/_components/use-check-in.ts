@@ -2,11 +2,10 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
 import { useEffect, useRef, useState, type FormEvent } from 'react';
 import type { ZodError } from 'zod';
-import { ProblemError } from '~/lib/api-client';
+import { ProblemError, sendJson } from '~/lib/api-client';
 import {
   customerSearchQuery,
   jobKeys,
-  sendJson,
   type CustomerMatchJson,
   type JobDetailJson,
 } from '~/lib/queries/jobs';

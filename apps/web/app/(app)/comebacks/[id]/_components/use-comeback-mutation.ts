@@ -1,9 +1,9 @@
 'use client';
 
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { ProblemError } from '~/lib/api-client';
+import { ProblemError, sendJson } from '~/lib/api-client';
 import { auditKeys } from '~/lib/queries/audits';
-import { comebackKeys, sendJson } from '~/lib/queries/comebacks';
+import { comebackKeys } from '~/lib/queries/comebacks';
 import type { ComebackPatchInput } from '~/lib/validators/comebacks';
 import type { ComebackDetail } from '~/server/queries/comebacks';
 
@@ -12,7 +12,7 @@ export function useComebackMutation(id: number) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: ComebackPatchInput) =>
-      sendJson<ComebackDetail>(`/api/comebacks/${id}`, 'PATCH', body),
+      sendJson<ComebackDetail>('PATCH', `/api/comebacks/${id}`, body),
     onSuccess: (comeback) => {
       queryClient.setQueryData(comebackKeys.detail(id), comeback);
       void queryClient.invalidateQueries({ queryKey: comebackKeys.lists });

@@ -2,8 +2,8 @@
 
 import { useMutation } from '@tanstack/react-query';
 import { useRouter } from 'next/navigation';
+import { sendJson } from '~/lib/api-client';
 import { useId, useState } from 'react';
-import { sendJson } from '~/lib/queries/audits';
 
 interface ItemDraft {
   key: number;
@@ -28,7 +28,7 @@ export function AuditFormEditor({
   const [nextKey, setNextKey] = useState(initial.items.length);
   const [errors, setErrors] = useState<Record<string, string>>({});
   const publish = useMutation({
-    mutationFn: (body: unknown) => sendJson<{ version: number }>('/api/audit-forms', 'POST', body),
+    mutationFn: (body: unknown) => sendJson<{ version: number }>('POST', '/api/audit-forms', body),
     onSuccess: () => router.refresh(),
   });
 

@@ -4,11 +4,10 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import { SaveBar } from '~/components/save-bar';
 import { Panel } from '~/components/ui';
-import { ProblemError } from '~/lib/api-client';
+import { ProblemError, sendJson } from '~/lib/api-client';
 import {
   comebackKeys,
   comebackSettingsQuery,
-  sendJson,
   type ComebackSettingsView,
 } from '~/lib/queries/comebacks';
 import { ATTRIBUTION_LABELS, ATTRIBUTIONS, type AttributionValue } from '~/lib/comebacks';
@@ -51,7 +50,7 @@ function Editor({ initial }: { initial: ComebackSettingsView }) {
   const [saved, setSaved] = useState(false);
   const save = useMutation({
     mutationFn: (body: ComebackSettingsInput) =>
-      sendJson<ComebackSettingsView>('/api/settings/comebacks', 'PUT', body),
+      sendJson<ComebackSettingsView>('PUT', '/api/settings/comebacks', body),
     onSuccess: (next) => {
       queryClient.setQueryData(comebackKeys.settings, next);
       void queryClient.invalidateQueries({ queryKey: comebackKeys.all });

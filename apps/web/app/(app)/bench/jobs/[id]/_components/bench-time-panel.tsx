@@ -2,10 +2,11 @@
 
 import Link from 'next/link';
 import { useEffect, useState } from 'react';
+import { sendJson } from '~/lib/api-client';
 import { Panel } from '~/components/ui';
 import { clientNow } from '~/lib/client-clock';
 import { formatInZone } from '~/lib/format';
-import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { type JobDetailJson } from '~/lib/queries/jobs';
 import { formatMinutes } from '../../../_components/format';
 import { ErrorNote } from './error-note';
 import { useJobMutation } from './use-job-mutation';

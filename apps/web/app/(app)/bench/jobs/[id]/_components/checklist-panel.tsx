@@ -1,9 +1,10 @@
 'use client';
 
 import { useRef, useState } from 'react';
+import { sendJson } from '~/lib/api-client';
 import { Panel } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
-import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { type JobDetailJson } from '~/lib/queries/jobs';
 import { STEP_GROUP_LABELS } from '../../../_components/format';
 import { ErrorNote } from './error-note';
 import { useJobMutation } from './use-job-mutation';

@@ -3,9 +3,10 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import Link from 'next/link';
 import { useId, useState } from 'react';
+import { sendJson } from '~/lib/api-client';
 import { formatInZone } from '~/lib/format';
 import { SERVICE_LABELS } from '~/lib/labels';
-import { comebackKeys, jobComebackQuery, sendJson } from '~/lib/queries/comebacks';
+import { comebackKeys, jobComebackQuery } from '~/lib/queries/comebacks';
 import { jobKeys } from '~/lib/queries/jobs';
 import { COMEBACK_STATUS_LABELS } from '~/lib/comebacks';
 import { type ComebackLinkInput } from '~/lib/validators/comebacks';
@@ -103,7 +104,7 @@ function LinkForm(props: { jobId: number; data: JobComeback; timeZone: string })
   const [symptom, setSymptom] = useState('');
   const link = useMutation({
     mutationFn: (body: ComebackLinkInput) =>
-      sendJson<JobComeback>(`/api/jobs/${props.jobId}/comeback-of`, 'POST', body),
+      sendJson<JobComeback>('POST', `/api/jobs/${props.jobId}/comeback-of`, body),
     onSuccess: (next) => {
       queryClient.setQueryData(comebackKeys.job(props.jobId), next);
       void queryClient.invalidateQueries({ queryKey: jobKeys.detail(props.jobId) });

@@ -1,13 +1,14 @@
 'use client';
 
 import { useQuery } from '@tanstack/react-query';
+import { sendJson } from '~/lib/api-client';
 import { clientNow } from '~/lib/client-clock';
 import Link from 'next/link';
 import { useState, type ReactNode } from 'react';
 import { StateBadge } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
 import { JOB_STATE_LABELS, REEL_KIND_LABELS, SERVICE_LABELS, type JobState } from '~/lib/labels';
-import { jobDetailQuery, sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { jobDetailQuery, type JobDetailJson } from '~/lib/queries/jobs';
 import { formatCivilDate, moveLabel, USE_LABELS, WATER_LABELS } from '../../../_components/format';
 import { BenchTimePanel } from './bench-time-panel';
 import { ChecklistPanel } from './checklist-panel';

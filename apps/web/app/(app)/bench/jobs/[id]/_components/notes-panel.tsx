@@ -1,8 +1,9 @@
 'use client';
 
 import { useState } from 'react';
+import { sendJson } from '~/lib/api-client';
 import { Panel } from '~/components/ui';
-import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { type JobDetailJson } from '~/lib/queries/jobs';
 import { ErrorNote } from './error-note';
 import { useJobMutation } from './use-job-mutation';
 

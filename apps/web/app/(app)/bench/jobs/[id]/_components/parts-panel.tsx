@@ -1,8 +1,9 @@
 'use client';
 
 import { useState, type FormEvent } from 'react';
+import { sendJson } from '~/lib/api-client';
 import { Empty, Panel } from '~/components/ui';
-import { sendJson, type JobDetailJson } from '~/lib/queries/jobs';
+import { type JobDetailJson } from '~/lib/queries/jobs';
 import { parseMoney } from '~/lib/jobs';
 import { formatCents } from '../../../_components/format';
 import { ErrorNote } from './error-note';
