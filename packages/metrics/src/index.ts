@@ -10,6 +10,7 @@ export {
   type Weekday,
 } from './business-time';
 export { quantile, quantileSorted } from './quantile';
+export { summariseSortedRuns, TURNAROUND_DIGITS } from './sorted-runs';
 export {
   jobTurnaround,
   onTimeShare,

@@ -1,6 +1,6 @@
 import { asc, sql, type Db, type SQL } from '@reelwright/db';
 import { regions as regionsTable } from '@reelwright/db/schema';
-import type { SurvivalTable } from '@reelwright/metrics';
+import { summariseSortedRuns, type SurvivalTable } from '@reelwright/metrics';
 import type { ComparisonQuery, PeriodQuery } from '~/lib/validators/network';
 import { addDays, shopSeverities } from '../../audits/sampling';
 import { notFound } from '../../errors';
@@ -16,7 +16,6 @@ import {
 import { assembleFigures, totals } from './assemble';
 import { emptyTable, followUpTables, periodIsFinal } from './follow-up';
 import { loadReference } from './reference';
-import { summariseSortedRuns } from './turnarounds';
 import type { NetworkComparisonResult } from './types';
 
 /** One shop's counts for a period, straight from the aggregate. */

@@ -1,6 +1,6 @@
-import { turnaroundSummary } from '@reelwright/metrics';
 import { describe, expect, it } from 'vitest';
-import { summariseSortedRuns, TURNAROUND_DIGITS } from './turnarounds';
+import { summariseSortedRuns, TURNAROUND_DIGITS } from './sorted-runs';
+import { turnaroundSummary } from './turnaround';
 
 const encode = (values: number[]) =>
   [...values]

@@ -1,6 +1,9 @@
-import type { TurnaroundSummary } from '@reelwright/metrics';
+import type { TurnaroundSummary } from './turnaround';
 
-/** Digits per value in shop_month_figures' turnaround lists (migration 0003). */
+// Quantiles of the union of ascending lists of fixed-width decimal numbers, as the database keeps
+// each shop-month's turnarounds (migration 0003 of @reelwright/db), merged without sorting.
+
+/** Digits per value in the lists (shop_month_figures' turnaround lists). */
 export const TURNAROUND_DIGITS = 7;
 
 /** The i-th value of a list of fixed-width decimal numbers. */
