@@ -140,3 +140,15 @@ export {
   type ComebackEstimate,
   type ComebackReference,
 } from './comeback-estimate';
+export { betaCdf, betaQuantile, logBeta, logGamma } from './beta';
+export {
+  betaBinomialLogLikelihood,
+  fitBetaPrior,
+  momentsPrior,
+  shrinkRates,
+  type Counts,
+  type PriorFit,
+  type ShrinkBand,
+  type ShrinkOptions,
+  type ShrunkRate,
+} from './shrinkage';
