@@ -2,6 +2,7 @@ import stdlibBetaln from '@stdlib/math-base-special-betaln';
 import stdlibGammaln from '@stdlib/math-base-special-gammaln';
 import stdlibBetaCdf from '@stdlib/stats-base-dists-beta-cdf';
 import stdlibBetaQuantile from '@stdlib/stats-base-dists-beta-quantile';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { betaCdf, betaQuantile, logGamma } from './beta';
 import {
@@ -168,5 +169,57 @@ describe('shrunk per-person rates', () => {
     expect(pooled.kind).toBe('pooled');
     const rows = shrinkRates([{ events: 2, trials: 40 }], pooled, { reference: 0.05, margin: 0 });
     expect(rows[0]).toMatchObject({ estimate: 0.05, interval: null, band: 'in line' });
+  });
+});
+
+describe('shrinkage properties', () => {
+  const prior = fc.record({
+    alpha: fc.double({ min: 0.05, max: 200, noNaN: true }),
+    beta: fc.double({ min: 0.05, max: 2000, noNaN: true }),
+  });
+  const counts = fc
+    .integer({ min: 1, max: 500 })
+    .chain((trials) =>
+      fc.record({ trials: fc.constant(trials), events: fc.integer({ min: 0, max: trials }) }),
+    );
+  const fitted = (p: { alpha: number; beta: number }) =>
+    ({ kind: 'fitted', ...p, mean: p.alpha / (p.alpha + p.beta), logLikelihood: 0 }) as const;
+
+  it('the estimate always lies between the raw rate and the prior mean', () => {
+    fc.assert(
+      fc.property(prior, counts, (p, c) => {
+        const [r] = shrinkRates([c], fitted(p), { reference: 0.1, margin: 0 });
+        const lo = Math.min(r!.raw!, p.alpha / (p.alpha + p.beta));
+        const hi = Math.max(r!.raw!, p.alpha / (p.alpha + p.beta));
+        return r!.estimate! >= lo - 1e-12 && r!.estimate! <= hi + 1e-12;
+      }),
+    );
+  });
+
+  it('more jobs at the same raw rate shrink less', () => {
+    fc.assert(
+      fc.property(prior, counts, fc.integer({ min: 2, max: 20 }), (p, c, times) => {
+        const [one, many] = shrinkRates(
+          [c, { events: c.events * times, trials: c.trials * times }],
+          fitted(p),
+          { reference: 0.1, margin: 0 },
+        );
+        const mean = p.alpha / (p.alpha + p.beta);
+        return (
+          Math.abs(many!.estimate! - one!.raw!) <= Math.abs(one!.estimate! - one!.raw!) + 1e-12 &&
+          Math.abs(many!.estimate! - mean) >= Math.abs(one!.estimate! - mean) - 1e-12
+        );
+      }),
+    );
+  });
+
+  it('the credible interval holds the estimate', () => {
+    fc.assert(
+      fc.property(prior, counts, (p, c) => {
+        const [r] = shrinkRates([c], fitted(p), { reference: 0.1, margin: 0 });
+        return r!.interval!.lower <= r!.estimate! && r!.estimate! <= r!.interval!.upper;
+      }),
+      { numRuns: 200 },
+    );
   });
 });
