@@ -21,7 +21,7 @@ export async function register() {
     );
     // An import cut off by a crash is taken back now: on the embedded database nothing else can
     // be running one; on a server, only those whose heartbeat stopped.
-    const { takeBackAbandonedImports } = await import('./server/imports/jobs');
+    const { takeBackAbandonedImports } = await import('./server/imports/take-back');
     const takenBack = await takeBackAbandonedImports({ all: handle.driver === 'pglite' });
     if (takenBack) console.log(`Reelwright: took back ${takenBack} import(s) cut off part-way`);
   } catch (error) {

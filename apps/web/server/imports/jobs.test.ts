@@ -14,7 +14,8 @@ import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testin
 import { ApiError } from '../errors';
 import { shopCalendar } from '../bench/calendar';
 import { buildImportNetwork, identityMapping, importRows, toCsv } from './fixture';
-import { runImport, takeBackAbandonedImports } from './jobs';
+import { runImport } from './jobs';
+import { takeBackAbandonedImports } from './take-back';
 import { prepareImport } from './prepare';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));

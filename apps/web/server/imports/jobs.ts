@@ -1,5 +1,4 @@
-import { and, desc, eq, isNotNull, isNull, lt, or, sql, type Db, type Tx } from '@reelwright/db';
-import { othersWaiting } from '@reelwright/db/client';
+import { desc, eq, isNotNull, sql, type Tx } from '@reelwright/db';
 import {
   activityLog,
   benchSessions,
@@ -9,7 +8,6 @@ import {
   jobs,
   reels,
   serviceStandards,
-  shopMonthFigures,
   type NewJobEvent,
 } from '@reelwright/db/schema';
 import type { ParsedImportRow } from '~/lib/validators/imports';
@@ -19,12 +17,11 @@ import { conflict } from '../errors';
 import type { Principal } from '../principal';
 import { bulkInsert } from './bulk';
 import { invert, refuseDuplicate, yieldToEventLoop, type PreparedImport } from './prepare';
+import { takeBack, takeBackAbandonedImports } from './take-back';
+import { giveWay, inTurns, refreshAfterBulkLoad, slices } from './turns';
 import * as clock from '~/server/clock';
 
 // The second half of a CSV job import: storing a file prepare.ts has checked.
-
-/** Rows looked at between two turns for the event loop, where the import only works in memory. */
-const ROWS_PER_TURN = 2000;
 
 /**
  * How far storing has got: `step` says what is being written, `fraction` is the whole import
@@ -67,8 +64,6 @@ const ROW_CHUNK = 500;
 const JOB_CHUNK = 100;
 /** Shop-months of figures recomputed per transaction after the jobs are in. */
 const FIGURE_MONTHS_CHUNK = 3;
-/** An import whose heartbeat is older than this was cut off (a chunk commits within seconds). */
-export const ABANDONED_AFTER_MS = 2 * 60_000;
 
 /**
  * Writes a prepared import in short transactions, so that other users' requests are answered
@@ -377,140 +372,5 @@ export async function runImport(
       );
     }
     throw error;
-  }
-}
-
-/** The longest the import waits for a quiet moment before its next chunk (it is never starved). */
-const GIVE_WAY_MAX_MS = 40;
-/** How long the database must stay free: a request between two of its queries is back by then. */
-const QUIET_MS = 2;
-const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
-
-/**
- * Before each chunk, requests using or waiting for the embedded database go first (the web
- * server's PGlite has one connection; see `othersWaiting`): an import is background work.
- */
-async function giveWay(conn: Db) {
-  const until = performance.now() + GIVE_WAY_MAX_MS;
-  while (performance.now() < until) {
-    if (!othersWaiting(conn)) {
-      await sleep(QUIET_MS);
-      if (!othersWaiting(conn)) return;
-    } else {
-      await sleep(1);
-    }
-  }
-}
-
-/** Calls `visit` for every row, handing the event loop a turn every few thousand rows. */
-async function inTurns<T>(rows: readonly T[], visit: (row: T) => void) {
-  for (let i = 0; i < rows.length; i += ROWS_PER_TURN) {
-    for (const row of rows.slice(i, i + ROWS_PER_TURN)) visit(row);
-    await yieldToEventLoop();
-  }
-}
-
-function slices<T>(items: readonly T[], size: number): T[][] {
-  const out: T[][] = [];
-  for (let i = 0; i < items.length; i += size) out.push(items.slice(i, i + size));
-  return out;
-}
-
-/**
- * Takes an import's rows back out, a chunk of jobs at a time (their timeline and bench time go
- * with them), then the reels and customers it created, and marks the batch failed with `reason`.
- * A row someone has meanwhile tied to other records stays, and the log says so.
- */
-async function takeBack(batchId: number, reason: string) {
-  const conn = await db();
-  try {
-    for (;;) {
-      const { rows } = await conn.execute<{ id: number }>(
-        sql`delete from ${jobs} where ${jobs.id} in (
-              select ${jobs.id} from ${jobs} where ${jobs.importBatchId} = ${batchId} limit ${JOB_CHUNK})
-            returning ${jobs.id}`,
-      );
-      if (rows.length === 0) break;
-      await yieldToEventLoop();
-    }
-    await conn.delete(reels).where(eq(reels.importBatchId, batchId));
-    await conn.delete(customers).where(eq(customers.importBatchId, batchId));
-  } catch (error) {
-    console.error(`[import] taking back import #${batchId} left rows behind:`, error);
-  }
-  await conn
-    .update(importBatches)
-    .set({
-      status: 'failed',
-      importedCount: 0,
-      heartbeatAt: null,
-      completedAt: clock.now(),
-      errors: [{ row: 0, message: `${reason}; nothing was kept.` }],
-    })
-    .where(eq(importBatches.id, batchId));
-}
-
-/**
- * Imports cut off part-way (the server stopped while one ran) are taken back: with a PostgreSQL
- * server, those whose heartbeat stopped; at start-up on the embedded database, every one, since
- * nothing else can be writing it. Returns how many were taken back.
- */
-export async function takeBackAbandonedImports(options: { all?: boolean } = {}): Promise<number> {
-  const conn = await db();
-  const cutoff = new Date(Date.now() - ABANDONED_AFTER_MS);
-  const abandoned = await conn
-    .select({ id: importBatches.id })
-    .from(importBatches)
-    .where(
-      and(
-        eq(importBatches.status, 'importing'),
-        options.all
-          ? undefined
-          : or(isNull(importBatches.heartbeatAt), lt(importBatches.heartbeatAt, cutoff)),
-      ),
-    );
-  for (const { id } of abandoned) {
-    console.warn(`[import] import #${id} was cut off part-way; taking its rows back out`);
-    await takeBack(id, 'The server stopped during the import');
-  }
-  return abandoned.length;
-}
-
-/**
- * After a bulk load: the visibility map of the tables it wrote (the monthly figures its triggers
- * rewrote among them), so the network view's index-only scans skip the heap (PGlite has no
- * autovacuum, and a server's comes later), and planner statistics for the columns the screens
- * filter and join on, from a sample of 9,000 rows (statistics target 30) rather than 30,000: a
- * whole-table ANALYZE of the jobs at the default holds the embedded database for over half a
- * second. Each statement is its own turn, so that other requests are answered between them.
- * VACUUM cannot run in a transaction. The import has committed by now, so a failure is logged,
- * not reported.
- */
-async function refreshAfterBulkLoad(conn: Awaited<ReturnType<typeof db>>) {
-  const columns = [
-    [jobs, sql`(shop_id, state, technician_id, checked_in_at, ready_at, collected_at)`],
-    [jobEvents, sql`(job_id, at)`],
-    [benchSessions, sql`(job_id, technician_id)`],
-    [customers, sql`(shop_id)`],
-    [reels, sql`(customer_id)`],
-    [shopMonthFigures, sql``],
-  ] as const;
-  const steps = columns.flatMap(([table, which]) => [
-    () => conn.execute(sql`vacuum ${table}`),
-    () =>
-      conn.transaction(async (tx) => {
-        await tx.execute(sql`set local default_statistics_target = 30`);
-        await tx.execute(sql`analyze ${table} ${which}`);
-      }),
-  ]);
-  for (const step of steps) {
-    await giveWay(conn);
-    try {
-      await step();
-    } catch (error) {
-      console.warn('[import] refreshing statistics after the import failed:', error);
-      return;
-    }
-    await yieldToEventLoop();
   }
 }
