@@ -36,9 +36,11 @@ export function monthRange(month: string): { from: string; to: string } {
 
 /** How the app names a month: 'November 2026', or short 'Nov 2026'. */
 export function monthLabel(month: string, style: 'long' | 'short' = 'long'): string {
-  return new Intl.DateTimeFormat('en-US', { month: style, year: 'numeric', timeZone: 'UTC' }).format(
-    new Date(`${month}-01T00:00:00Z`),
-  );
+  return new Intl.DateTimeFormat('en-US', {
+    month: style,
+    year: 'numeric',
+    timeZone: 'UTC',
+  }).format(new Date(`${month}-01T00:00:00Z`));
 }
 
 /** The `k`-th Monday-to-Sunday week that starts inside a month (1: the first Monday). */
