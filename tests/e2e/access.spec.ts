@@ -1,6 +1,7 @@
 import { expect, test, type APIRequestContext, type Browser } from '@playwright/test';
 import { DEMO_PASSWORD, screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
+import { closedQuarter } from './clock';
 
 async function shopIdByName(request: APIRequestContext, name: string) {
   const response = await request.get('/api/shops');
@@ -143,7 +144,7 @@ test.describe('roles and scopes', () => {
 // Replays of the scope failures: the auditor read every shop's figures, a technician saw
 // colleagues' revenue, and another shop's filter answered 200 with an empty list.
 test.describe('scope of figures and shop filters', () => {
-  const QUARTER = 'from=2026-04-01&to=2026-06-30';
+  const QUARTER = closedQuarter().query;
   const MISSING_SHOP = 999_999;
 
   async function ownerShopIds(browser: Browser) {

@@ -1,9 +1,16 @@
 import { expect, test, type APIRequestContext, type Browser, type Page } from '@playwright/test';
 import { screenshotPath, storageState, type AccountName } from './accounts';
 import { expectAccessible } from './axe';
+import { monthLabel, monthRange, monthsBefore, weekIn } from './clock';
+
+// The end-to-end seed has no audit history (serve.sh adds none), so each test's rounds are the
+// only ones in their shop. Months count back from the seed's "today": last month is over in
+// every shop, and a week is Monday to Sunday inside its month.
+const LAST_MONTH = monthRange(monthsBefore(1));
+const MONTH_BEFORE = monthsBefore(2);
 
 // Audit rounds end to end against the seeded demo network (Saltwick & Spool). Marram Point is a
-// northern shop with a demo shop lead; its November has between 91 and 150 ready jobs.
+// northern shop with a demo shop lead; its last month has between 91 and 150 ready jobs.
 
 interface RoundDetail {
   id: number;
@@ -129,8 +136,8 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
     manager.page.getByRole('heading', { level: 1, name: 'Plan an audit round' }),
   ).toBeVisible();
   await manager.page.getByLabel('Shop', { exact: true }).selectOption({ label: 'Marram Point' });
-  await manager.page.getByLabel('From', { exact: true }).fill('2026-11-01');
-  await manager.page.getByLabel('To', { exact: true }).fill('2026-11-30');
+  await manager.page.getByLabel('From', { exact: true }).fill(LAST_MONTH.from);
+  await manager.page.getByLabel('To', { exact: true }).fill(LAST_MONTH.to);
   const planPanel = manager.page.getByRole('region', { name: 'Sampling plan' });
   await expect(planPanel).toContainText('became ready at Marram Point');
   await expect(planPanel).toContainText('Normal inspection');
@@ -154,7 +161,10 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   const roundId = Number(manager.page.url().split('/').pop());
   const planned = await round(manager.request, roundId);
   // MIL-STD-105E Table I: lots of 91–150 at level II are code F; Table II-A at AQL 2.5: n 20, Ac 1, Re 2.
-  expect(planned.lotSize, 'Marram Point’s November lot').toBeGreaterThanOrEqual(91);
+  expect(
+    planned.lotSize,
+    `Marram Point’s ${monthLabel(monthsBefore(1))} lot`,
+  ).toBeGreaterThanOrEqual(91);
   expect(planned.lotSize).toBeLessThanOrEqual(150);
   expect(planned).toMatchObject({
     severity: 'normal',
@@ -324,8 +334,10 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
     await owner.context.close();
     return id;
   })();
+  const week1 = weekIn(MONTH_BEFORE, 1);
+  const week2 = weekIn(MONTH_BEFORE, 2);
   const second = await manager.request.post('/api/audit-rounds', {
-    data: { shopId: marram, from: '2026-10-05', to: '2026-10-11', auditorId },
+    data: { shopId: marram, ...week1, auditorId },
   });
   expect(second.status()).toBe(201);
   const secondRound = (await second.json()) as PlannedRound;
@@ -334,7 +346,7 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   expect(last.round.decision).toBe('rejected');
 
   const preview = await manager.request.get(
-    `/api/audit-rounds/preview?shopId=${marram}&from=2026-10-12&to=2026-10-18`,
+    `/api/audit-rounds/preview?shopId=${marram}&from=${week2.from}&to=${week2.to}`,
   );
   expect(preview.status()).toBe(200);
   expect(await preview.json()).toMatchObject({
@@ -344,13 +356,13 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   });
   await manager.page.goto('/audits/new');
   await manager.page.getByLabel('Shop', { exact: true }).selectOption({ label: 'Marram Point' });
-  await manager.page.getByLabel('From', { exact: true }).fill('2026-10-12');
-  await manager.page.getByLabel('To', { exact: true }).fill('2026-10-18');
+  await manager.page.getByLabel('From', { exact: true }).fill(week2.from);
+  await manager.page.getByLabel('To', { exact: true }).fill(week2.to);
   await expect(planPanel).toContainText('Tightened inspection');
   await expect(planPanel).toContainText('2 of 5 or fewer consecutive rounds were rejected');
 
   // The shop's figures carry both rounds: none accepted, two rejected, the next one tightened.
-  const period = 'from=2026-10-01&to=2026-11-30';
+  const period = `from=${monthRange(MONTH_BEFORE).from}&to=${LAST_MONTH.to}`;
   const metrics = await manager.request.get(`/api/shops/${marram}/metrics?${period}`);
   expect(metrics.status()).toBe(200);
   const { audits } = ((await metrics.json()) as { figures: { audits: AuditFigures } }).figures;
@@ -369,7 +381,11 @@ test('regional manager, auditor and shop lead – a full round: plan, score, rej
   await manager.page.screenshot({ path: screenshotPath('audits-network-1280'), fullPage: true });
   // The latest months still have jobs inside their warranty windows: estimates, never flagged.
   const pchart = manager.page.getByRole('figure', { name: /Marram Point: monthly comeback rate/ });
-  await expect(pchart).toContainText(/Oct 2026 and Nov 2026 are estimates: [\d,]+ of their/);
+  await expect(pchart).toContainText(
+    new RegExp(
+      `${monthLabel(MONTH_BEFORE, 'short')} and ${monthLabel(monthsBefore(1), 'short')} are estimates: [\\d,]+ of their`,
+    ),
+  );
   await pchart.screenshot({ path: screenshotPath('network-pchart-provisional-1280') });
 
   for (const c of [manager, auditor, lead]) await c.context.close();
@@ -380,7 +396,7 @@ test('auditor – cannot edit a job or see a round not assigned to them', async 
   const saltwick = await shopId(owner.request, 'Saltwick Harbor');
   const otherAuditor = await userId(owner.request, 'auditor.two@saltwick.test');
   const planned = await owner.request.post('/api/audit-rounds', {
-    data: { shopId: saltwick, from: '2026-09-07', to: '2026-09-13', auditorId: otherAuditor },
+    data: { shopId: saltwick, ...weekIn(monthsBefore(3)), auditorId: otherAuditor },
   });
   expect(planned.status()).toBe(201);
   const notMine = (await planned.json()) as PlannedRound;
@@ -427,7 +443,7 @@ test('auditor – cannot edit a job or see a round not assigned to them', async 
   expect(
     (
       await auditor.request.post('/api/audit-rounds', {
-        data: { shopId: saltwick, from: '2026-08-03', to: '2026-08-09', auditorId: otherAuditor },
+        data: { shopId: saltwick, ...weekIn(monthsBefore(4)), auditorId: otherAuditor },
       })
     ).status(),
   ).toBe(403);
@@ -443,18 +459,25 @@ test('regional manager – plans only in their region; bad input is 400 and draw
   const skerry = await shopId(owner.request, 'Skerry Wharf');
   const auditorId = await userId(owner.request, 'auditor@saltwick.test');
   const preview = await south.request.get(
-    `/api/audit-rounds/preview?shopId=${skerry}&from=2026-11-01&to=2026-11-30`,
+    `/api/audit-rounds/preview?shopId=${skerry}&from=${LAST_MONTH.from}&to=${LAST_MONTH.to}`,
   );
   expect(preview.status()).toBe(404);
   const foreign = await south.request.post('/api/audit-rounds', {
-    data: { shopId: skerry, from: '2026-11-01', to: '2026-11-30', auditorId },
+    data: { shopId: skerry, ...LAST_MONTH, auditorId },
   });
   expect(foreign.status()).toBe(404);
   const before = (
     (await (await owner.request.get('/api/audit-rounds')).json()) as { rounds: unknown[] }
   ).rounds.length;
   const bad = await owner.request.post('/api/audit-rounds', {
-    data: { shopId: skerry, from: '2026-11-30', to: '2026-11-01', aql: 3, level: 'IV', auditorId },
+    data: {
+      shopId: skerry,
+      from: LAST_MONTH.to,
+      to: LAST_MONTH.from,
+      aql: 3,
+      level: 'IV',
+      auditorId,
+    },
   });
   expect(bad.status()).toBe(400);
   expect(bad.headers()['content-type']).toContain('application/problem+json');
@@ -463,7 +486,7 @@ test('regional manager – plans only in their region; bad input is 400 and draw
     expect.arrayContaining(['body.aql', 'body.level']),
   );
   const reversed = await owner.request.post('/api/audit-rounds', {
-    data: { shopId: skerry, from: '2026-11-30', to: '2026-11-01', auditorId },
+    data: { shopId: skerry, from: LAST_MONTH.to, to: LAST_MONTH.from, auditorId },
   });
   expect(reversed.status()).toBe(400);
   expect(
@@ -500,7 +523,7 @@ test('owner – publishes a new audit form version; a round planned before keeps
   const ternhollow = await shopId(owner.request, 'Ternhollow Lake');
   const auditorId = await userId(owner.request, 'auditor@saltwick.test');
   const before = await owner.request.post('/api/audit-rounds', {
-    data: { shopId: ternhollow, from: '2026-10-01', to: '2026-10-31', auditorId },
+    data: { shopId: ternhollow, ...monthRange(MONTH_BEFORE), auditorId },
   });
   expect(before.status()).toBe(201);
   const planned = (await before.json()) as PlannedRound;
@@ -520,7 +543,7 @@ test('owner – publishes a new audit form version; a round planned before keeps
   const kept = await owner.request.get(`/api/audit-rounds/${planned.id}`);
   expect(((await kept.json()) as { form: { version: number } }).form.version).toBe(1);
   const next = await owner.request.get(
-    `/api/audit-rounds/preview?shopId=${ternhollow}&from=2026-09-01&to=2026-09-30`,
+    `/api/audit-rounds/preview?shopId=${ternhollow}&from=${monthRange(monthsBefore(3)).from}&to=${monthRange(monthsBefore(3)).to}`,
   );
   expect(((await next.json()) as { form: { version: number } }).form.version).toBe(2);
   await owner.context.close();

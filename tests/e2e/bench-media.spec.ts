@@ -2,7 +2,7 @@ import { expect, test, type APIRequestContext, type Page } from '@playwright/tes
 import { deflateSync } from 'node:zlib';
 import { screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
-import { SEED_NOW } from './clock';
+import { monthsBefore, SEED_NOW, weekIn } from './clock';
 
 // Photos (straight to the local S3 fake), the ready-for-pickup e-mail (through the local SMTP
 // catcher) and the CSV import of past jobs.
@@ -255,7 +255,7 @@ test.describe('photos on the bench', () => {
 test('auditor – sees a sampled job’s photo through the round, served as the bench serves it', async ({
   browser,
 }) => {
-  // A round of Fennel Cove's week for the demo auditor, planned by the owner.
+  // A round of one of Fennel Cove's past weeks for the demo auditor, planned by the owner.
   const owner = await browser.newContext({ storageState: storageState('owner') });
   const { shops } = (await (await owner.request.get('/api/shops')).json()) as {
     shops: { id: number; name: string }[];
@@ -266,8 +266,7 @@ test('auditor – sees a sampled job’s photo through the round, served as the 
   const planned = await owner.request.post('/api/audit-rounds', {
     data: {
       shopId: shops.find((s) => s.name === 'Fennel Cove')!.id,
-      from: '2026-08-10',
-      to: '2026-08-16',
+      ...weekIn(monthsBefore(4), 2),
       auditorId: users.find((u) => u.email === 'auditor@saltwick.test')!.id,
     },
   });

@@ -1,7 +1,7 @@
 import { expect, test, type APIRequestContext, type Browser, type Page } from '@playwright/test';
 import { screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
-import { DAY, SEED_NOW } from './clock';
+import { closedQuarter, DAY, SEED_NOW } from './clock';
 
 interface JobRow {
   id: number;
@@ -323,7 +323,7 @@ test.describe('comebacks', () => {
     await expectAccessible(page);
 
     // The shop page shows a technician the causes but not the split by technician.
-    await page.goto(`/shops/${marram}?from=2026-04-01&to=2026-06-30`);
+    await page.goto(`/shops/${marram}?${closedQuarter().query}`);
     const breakdown = page.getByRole('region', { name: /^Where the comebacks come from/ });
     await expect(breakdown.getByRole('table', { name: 'By root cause' })).toBeVisible();
     await expect(breakdown.getByRole('table', { name: /By technician/ })).toHaveCount(0);
@@ -402,7 +402,7 @@ test.describe('comebacks', () => {
 
       // The shop page breaks the period's confirmed comebacks down, by technician too.
       const skerry = await shopId(north.request, 'Skerry Wharf');
-      await page.goto(`/shops/${skerry}?from=2026-04-01&to=2026-06-30`);
+      await page.goto(`/shops/${skerry}?${closedQuarter().query}`);
       const breakdown = page.getByRole('region', { name: /^Where the comebacks come from/ });
       await expect(breakdown.getByRole('table', { name: 'By root cause' })).toBeVisible();
       await expect(breakdown.getByRole('table', { name: 'By checklist step' })).toBeVisible();

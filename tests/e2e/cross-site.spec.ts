@@ -4,9 +4,10 @@ import { createServer, request as httpRequest, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { baseURL } from '../playwright.config';
 import { storageState, type AccountName } from './accounts';
+import { monthsBefore } from './clock';
 
-// A month over in every demo shop (the demo's "today" is 1 December 2026); month-close.spec.ts uses November.
-const MONTH = '2026-10';
+// A month over in every demo shop; month-close.spec.ts closes the one after it (last month).
+const MONTH = monthsBefore(2);
 
 interface JobJson {
   id: number;

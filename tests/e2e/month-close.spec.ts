@@ -3,10 +3,12 @@ import { createHmac } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
 import { screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
+import { monthLabel, monthRange, monthsBefore } from './clock';
 
-// November 2026 is over in every demo shop (the demo's "today" is 1 December 2026).
-const MONTH = '2026-11';
-const LABEL = 'November 2026';
+// Last month is over in every demo shop (the seed's "today" is the start of the next one).
+const MONTH = monthsBefore(1);
+const LABEL = monthLabel(MONTH);
+const { from: MONTH_FIRST, to: MONTH_LAST } = monthRange(MONTH);
 // The secret tests/e2e/serve.sh gives the server.
 const WEBHOOK_SECRET = process.env.STRIPE_WEBHOOK_SECRET ?? 'whsec_reelwright_end_to_end_only';
 
@@ -82,7 +84,7 @@ test.describe(() => {
       ...Array(7).fill('shop'),
       'total',
     ]);
-    expect(lines[1]).toContain(`shop,${MONTH},${MONTH}-01,${MONTH}-30,closed,`);
+    expect(lines[1]).toContain(`shop,${MONTH},${MONTH_FIRST},${MONTH_LAST},closed,`);
 
     await page.getByRole('button', { name: 'Issue royalty invoices' }).click();
     await expect(page.getByText(/^7 invoices issued\./)).toBeVisible();

@@ -2,9 +2,10 @@ import { readFile } from 'node:fs/promises';
 import { expect, test, type APIRequestContext, type Page } from '@playwright/test';
 import { screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
+import { closedQuarter } from './clock';
 
 // A quarter whose comeback figures are final (every warranty window closed); the story is told in it.
-const QUARTER = 'from=2026-04-01&to=2026-06-30';
+const { from: Q_FROM, to: Q_TO, query: QUARTER } = closedQuarter();
 const NORTH = ['Marram Point', 'Saltwick Harbor', 'Skerry Wharf', 'Ternhollow Lake'];
 const SOUTH = ['Brackwater Flats', 'Fennel Cove', 'Lantern Inlet'];
 
@@ -112,7 +113,7 @@ test.describe('network view', () => {
     await expect(
       southPage.getByRole('heading', { level: 1, name: 'Brackwater Flats' }),
     ).toBeVisible();
-    await expect(southPage).toHaveURL(/\/shops\/\d+\?from=2026-04-01&to=2026-06-30/);
+    await expect(southPage).toHaveURL(new RegExp(`/shops/\\d+\\?${QUARTER}`));
     await expect(southPage.getByText('Out of line · high').first()).toBeVisible();
     await south.close();
   });
@@ -126,7 +127,7 @@ test.describe('network view', () => {
       const downloading = page.waitForEvent('download');
       await page.getByRole('button', { name: 'Download CSV' }).click();
       const download = await downloading;
-      expect(download.suggestedFilename()).toBe('reelwright-network-2026-04-01-to-2026-06-30.csv');
+      expect(download.suggestedFilename()).toBe(`reelwright-network-${Q_FROM}-to-${Q_TO}.csv`);
       const text = await readFile((await download.path())!, 'utf8');
       // One line break after the last row, not two.
       expect(text.endsWith('\r\n')).toBe(true);
@@ -209,7 +210,7 @@ test.describe('network view', () => {
       expect(bad.headers()['content-type']).toContain('application/problem+json');
       const problem = (await bad.json()) as { errors: { field: string }[] };
       expect(problem.errors.map((e) => e.field).sort()).toEqual(['query.from', 'query.to']);
-      const backwards = await request.get('/api/network/comparison?from=2026-09-30&to=2026-07-01');
+      const backwards = await request.get(`/api/network/comparison?from=${Q_TO}&to=${Q_FROM}`);
       expect(backwards.status()).toBe(400);
       expect((await backwards.json()).errors).toEqual([
         { field: 'query.to', message: 'Must be on or after from' },

@@ -1,6 +1,11 @@
 import { expect, test } from '@playwright/test';
 import { screenshotPath, storageState } from './accounts';
 import { expectAccessible } from './axe';
+import { NEXT_YEAR } from './clock';
+
+// Dates in the calendar year after the seed's "today": one that does not exist, one far ahead.
+const NOT_A_DATE = `${NEXT_YEAR}-02-30`;
+const FAR_AHEAD = `${NEXT_YEAR}-12-27`;
 
 test.use({ storageState: storageState('owner') });
 
@@ -35,13 +40,13 @@ test('owner – edits a shop’s opening hours: a wrong span is named, a saved c
   await tuesday.fill(before);
 
   // A date that does not exist passes the form's shape check; the server refuses it, by name.
-  await dates.fill(`${closedBefore}\n2027-02-30`.trim());
+  await dates.fill(`${closedBefore}\n${NOT_A_DATE}`.trim());
   await page.getByRole('button', { name: 'Save the opening hours' }).click();
-  await expect(page.getByText('2027-02-30: Not a calendar date')).toBeVisible();
+  await expect(page.getByText(`${NOT_A_DATE}: Not a calendar date`)).toBeVisible();
   await expect(dates).toHaveAttribute('aria-invalid', 'true');
 
   // A closed day far ahead changes no finished job's turnaround, but every one is computed again.
-  await dates.fill(`${closedBefore}\n2027-12-27`.trim());
+  await dates.fill(`${closedBefore}\n${FAR_AHEAD}`.trim());
   await page.getByRole('button', { name: 'Save the opening hours' }).click();
   const done = page.getByText(
     /^Saved\. Turnaround computed again for [\d,]+ finished jobs; 0 changed\.$/,
@@ -53,7 +58,7 @@ test('owner – edits a shop’s opening hours: a wrong span is named, a saved c
   const api = (await (
     await page.request.get(page.url().replace('/settings/shops/', '/api/shops/') + '/calendar')
   ).json()) as { closedDates: string[] };
-  expect(api.closedDates).toContain('2027-12-27');
+  expect(api.closedDates).toContain(FAR_AHEAD);
 
   // Put the dates back as they were.
   await page.reload();

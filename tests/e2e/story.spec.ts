@@ -1,7 +1,7 @@
 import { expect, test, type Browser, type Page } from '@playwright/test';
 import { storageState, type AccountName } from './accounts';
 import { expectAccessible } from './axe';
-import { SEED_NOW } from './clock';
+import { monthRange, monthsBefore } from './clock';
 
 // The demo network's story, read from the network page as a manager reads it: Brackwater Flats'
 // comebacks run ahead of what its follow-up predicts, Skerry Wharf's reels wait on parts, and
@@ -9,17 +9,7 @@ import { SEED_NOW } from './clock';
 //
 // The month before the seed's "today" (tests/e2e/clock.ts), in New York, is the one read here.
 
-/** The local month before the seed's "today", as the picker's dates. */
-function monthBefore(now: Date) {
-  const today = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/New_York' }).format(now);
-  const [y, m] = today.split('-').map(Number) as [number, number];
-  const [year, month] = m === 1 ? [y - 1, 12] : [y, m - 1];
-  const last = new Date(Date.UTC(year, month, 0)).getUTCDate();
-  const mm = String(month).padStart(2, '0');
-  return { from: `${year}-${mm}-01`, to: `${year}-${mm}-${last}` };
-}
-
-const LAST_MONTH = monthBefore(SEED_NOW);
+const LAST_MONTH = monthRange(monthsBefore(1));
 
 interface Row {
   name: string;

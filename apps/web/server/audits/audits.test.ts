@@ -30,6 +30,7 @@ import { publishAuditForm } from './forms';
 import { planRound, previewRound, type PlannedRound } from './plan';
 import { addDays, localToday } from './sampling';
 import { saveSample } from './score';
+import * as clock from '~/server/clock';
 
 vi.mock('~/server/db', () => import('~/server/testing/memory-db').then((m) => m.dbModule));
 vi.mock('~/server/session', () =>
@@ -321,7 +322,7 @@ describe('scoring and deciding', () => {
           contentType: 'image/jpeg',
           sizeBytes: 1000,
           originalName: 'drag-stack.jpg',
-          confirmedAt: new Date(),
+          confirmedAt: clock.now(),
         },
         {
           jobId,
@@ -640,7 +641,7 @@ describe('corrective actions', () => {
 
   it('highlights an action past its due date as overdue', async () => {
     const [open] = await listCorrectiveActions(north, { status: 'open' });
-    const late = new Date(Date.now() + 20 * 86_400_000);
+    const late = new Date(clock.now().getTime() + 20 * 86_400_000);
     const [again] = (await listCorrectiveActions(north, { status: 'open' }, late)).filter(
       (a) => a.id === open!.id,
     );
