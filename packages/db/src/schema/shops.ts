@@ -56,11 +56,15 @@ export const shops = pgTable(
     phone: text('phone'),
     /** Payment provider customer that royalty invoices are billed to. */
     stripeCustomerId: text('stripe_customer_id').unique(),
+    /** ISO 4217 code of the shop's prices and royalties. */
+    currency: text('currency').notNull().default('USD'),
+    /** False once the owner closes the shop: it takes no new jobs; its history stays. */
     active: boolean('active').notNull().default(true),
     createdAt: createdAt(),
   },
   (t) => [
     index('shops_region_id_idx').on(t.regionId),
+    check('shops_currency_code', sql`${t.currency} ~ '^[A-Z]{3}$'`),
     check('shops_royalty_rate_bp_range', sql`${t.royaltyRateBp} between 0 and 10000`),
     check('shops_labour_rate_cents_nonnegative', sql`${t.labourRateCents} >= 0`),
   ],
