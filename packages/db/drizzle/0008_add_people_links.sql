@@ -16,6 +16,8 @@ CREATE TABLE "account_links" (
 --> statement-breakpoint
 ALTER TABLE "users" ALTER COLUMN "password_hash" DROP NOT NULL;--> statement-breakpoint
 ALTER TABLE "shops" ADD COLUMN "currency" text DEFAULT 'USD' NOT NULL;--> statement-breakpoint
+ALTER TABLE "shops" ADD COLUMN "opened_at" timestamp with time zone;--> statement-breakpoint
+ALTER TABLE "shops" ADD COLUMN "closed_at" timestamp with time zone;--> statement-breakpoint
 ALTER TABLE "account_links" ADD CONSTRAINT "account_links_user_id_users_id_fk" FOREIGN KEY ("user_id") REFERENCES "public"."users"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "account_links" ADD CONSTRAINT "account_links_created_by_id_users_id_fk" FOREIGN KEY ("created_by_id") REFERENCES "public"."users"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 CREATE INDEX "account_links_user_idx" ON "account_links" USING btree ("user_id","purpose");--> statement-breakpoint

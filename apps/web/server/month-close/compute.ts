@@ -36,6 +36,7 @@ import {
 } from './figures';
 import type { Principal } from '../principal';
 import { auditSummaryByShop } from '../queries/audits';
+import { openDuring } from '../queries/scope';
 import { loadReference } from '../queries/network/reference';
 import { monthDates } from './period';
 
@@ -69,7 +70,12 @@ export async function networkRules(conn: Db, asOf: Date, month?: string): Promis
 }
 
 /** The shops a scope condition selects, region by region and by name (the export's order). */
-export async function shopsIn(conn: Db, where: SQL | undefined): Promise<ShopRef[]> {
+export async function shopsIn(
+  conn: Db,
+  where: SQL | undefined,
+  month?: string,
+): Promise<ShopRef[]> {
+  const open = month ? openDuring(monthDates(month).first, monthDates(month).last) : undefined;
   return conn
     .select({
       id: shops.id,
@@ -81,7 +87,7 @@ export async function shopsIn(conn: Db, where: SQL | undefined): Promise<ShopRef
     })
     .from(shops)
     .innerJoin(regions, eq(regions.id, shops.regionId))
-    .where(where)
+    .where(and(where, open))
     .orderBy(asc(regions.name), asc(shops.name), asc(shops.id));
 }
 
@@ -300,7 +306,7 @@ export async function computeNetwork(
   rules: NetworkRules,
   audits: AuditsByShop,
 ): Promise<FrozenFigures> {
-  const shopList = await shopsIn(conn, undefined);
+  const shopList = await shopsIn(conn, undefined, month);
   const network = new TotalsAccumulator('All shops', rules);
   const regionTotals = new Map<number, TotalsAccumulator>();
   const rows: ShopFigures[] = [];

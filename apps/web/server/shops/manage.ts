@@ -100,7 +100,7 @@ export async function openShop(
         labourRateCents: input.labourRateCents,
         royaltyRateBp: input.royaltyRateBp,
         currency: input.currency,
-        createdAt: now,
+        openedAt: now,
       })
       .returning();
     await log(tx, {
@@ -157,9 +157,10 @@ export async function updateShop(
       (k) => patch[k] !== undefined && patch[k] !== before[k],
     );
     if (changed.length === 0) return;
+    const closing = changed.includes('active') ? { closedAt: patch.active ? null : now } : {};
     await tx
       .update(shops)
-      .set(Object.fromEntries(changed.map((k) => [k, patch[k]])))
+      .set({ ...Object.fromEntries(changed.map((k) => [k, patch[k]])), ...closing })
       .where(eq(shops.id, id));
     await log(tx, {
       principal,
@@ -196,7 +197,8 @@ export async function listRegions(conn?: Tx): Promise<RegionView[]> {
       id: regions.id,
       name: regions.name,
       code: regions.code,
-      shops: sql<number>`(select count(*)::int from ${shops} where ${shops.regionId} = ${regions.id})`,
+      // Spelled out: inside a select list the builder would leave the columns unqualified.
+      shops: sql<number>`(select count(*)::int from shops s where s.region_id = "regions"."id")`,
     })
     .from(regions)
     .orderBy(asc(regions.name));

@@ -9,7 +9,7 @@ import {
   text,
   uniqueIndex,
 } from 'drizzle-orm/pg-core';
-import { createdAt, id } from './columns';
+import { createdAt, id, instant } from './columns';
 import { serviceType } from './enums';
 
 /** Same shape as `Weekday` / `OpeningSpan` in @reelwright/metrics, so a shop row is a calendar. */
@@ -60,6 +60,12 @@ export const shops = pgTable(
     currency: text('currency').notNull().default('USD'),
     /** False once the owner closes the shop: it takes no new jobs; its history stays. */
     active: boolean('active').notNull().default(true),
+    /**
+     * When the owner opened and closed the shop (null: open before the records begin, or still
+     * open); they bound the periods the network view and the month close list it in.
+     */
+    openedAt: instant('opened_at'),
+    closedAt: instant('closed_at'),
     createdAt: createdAt(),
   },
   (t) => [
