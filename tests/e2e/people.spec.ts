@@ -47,7 +47,7 @@ const shopNames = async (page: Page) =>
   ).shops.map((s) => s.name);
 
 async function newPage(browser: Browser) {
-  const context = await browser.newContext();
+  const context = await browser.newContext({ storageState: { cookies: [], origins: [] } });
   return { context, page: await context.newPage() };
 }
 
