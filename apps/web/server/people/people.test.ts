@@ -2,7 +2,7 @@ import { eq } from '@reelwright/db';
 import { accountLinks, emails, users } from '@reelwright/db/schema';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { inviteInput, passwordChange, passwordResetConfirm } from '~/lib/validators/people';
-import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
+import { closeMemoryDb, openTargetDb, testState as state } from '~/server/testing/memory-db';
 import { buildNetwork, type Network } from '../bench/fixture';
 import { ApiError } from '../errors';
 import {
@@ -26,7 +26,7 @@ const later = (ms: number) => new Date(T0.getTime() + ms);
 const HOUR = 3_600_000;
 
 beforeAll(async () => {
-  await openMemoryDb();
+  await openTargetDb();
   net = await buildNetwork(state.handle!.db);
 }, 60_000);
 afterAll(closeMemoryDb);

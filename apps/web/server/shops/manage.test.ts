@@ -2,7 +2,7 @@ import { eq } from '@reelwright/db';
 import { activityLog, users } from '@reelwright/db/schema';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { regionCreate, shopCreate, shopPatch } from '~/lib/validators/shops';
-import { closeMemoryDb, openMemoryDb, testState as state } from '~/server/testing/memory-db';
+import { closeMemoryDb, openTargetDb, testState as state } from '~/server/testing/memory-db';
 import { checkIn } from '../bench/check-in';
 import { buildNetwork, type Network } from '../bench/fixture';
 import { expectApiError, jobMaker, MON } from '../bench/test-support';
@@ -17,7 +17,7 @@ let net: Network;
 const db = () => state.handle!.db;
 
 beforeAll(async () => {
-  await openMemoryDb();
+  await openTargetDb();
   net = await buildNetwork(state.handle!.db);
 }, 60_000);
 afterAll(closeMemoryDb);
