@@ -113,6 +113,31 @@ test('owner – opens a shop in a new time zone; it is in the network view with 
   expect(checkIn.status(), await checkIn.text()).toBe(201);
   await context.close();
 
+  // A new royalty rate from next month is dated; this month keeps the rate the shop opened with.
+  const next = new Date(Date.UTC(SEED_NOW.getUTCFullYear(), SEED_NOW.getUTCMonth() + 1, 1))
+    .toISOString()
+    .slice(0, 7);
+  await page.goto(`/settings/shops/${shopId}`);
+  await expect(
+    page.getByRole('heading', { level: 1, name: `${SHOP}: opening hours` }),
+  ).toBeVisible();
+  await page.getByLabel('Royalty rate (%)').fill('7');
+  await page.getByLabel('New royalty rate from (month)').fill(next);
+  await page.getByRole('button', { name: 'Save the details' }).click();
+  await expect(page.getByText('Saved.', { exact: true })).toBeVisible();
+  const rates = page.getByRole('table', { name: 'Royalty rates by month' });
+  await expect(rates.getByRole('row', { name: 'Earlier months 6%' })).toBeVisible();
+  await expect(rates.getByRole('row', { name: `${next} 7%` })).toBeVisible();
+  await expectAccessible(page);
+  const royaltyIn = async (m: string) =>
+    (
+      (await (await page.request.get(`/api/month-close/${m}`)).json()) as {
+        shops: { shop: { name: string }; royaltyRateBp: number | null }[];
+      }
+    ).shops.find((r) => r.shop.name === SHOP)?.royaltyRateBp;
+  expect(await royaltyIn(month)).toBe(600);
+  expect(await royaltyIn(next)).toBe(700);
+
   // The month close of that month has its row.
   await page.goto(`/month-close?month=${month}`);
   await expect(page.getByRole('heading', { level: 1, name: 'Month close' })).toBeVisible();

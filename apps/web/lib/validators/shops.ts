@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { cents, idNumber, localDate, text, wholeNumber } from './common';
+import { cents, idNumber, localDate, month, text, wholeNumber } from './common';
 
 // The shop calendar form and PUT /api/shops/{id}/calendar: weekly opening hours and closed dates.
 
@@ -110,16 +110,24 @@ export const shopCreate = z.strictObject({
 });
 export type ShopCreate = z.infer<typeof shopCreate>;
 
-/** `PATCH /api/shops/{id}`: rename, move to another region, change rates, close or reopen. */
+/**
+ * `PATCH /api/shops/{id}`: rename, move to another region, change rates, close or reopen. A new
+ * royalty rate applies from `royaltyFrom` (a month; default the shop's current month) on.
+ */
 export const shopPatch = z
   .strictObject({
     name: shopName.optional(),
     regionId: idNumber.optional(),
     labourRateCents: labourRate.optional(),
     royaltyRateBp: royaltyRate.optional(),
+    royaltyFrom: month.optional(),
     active: z.boolean({ error: 'true or false' }).optional(),
   })
-  .refine((v) => Object.keys(v).length > 0, 'Change at least one field');
+  .refine((v) => Object.keys(v).length > 0, 'Change at least one field')
+  .refine((v) => v.royaltyFrom === undefined || v.royaltyRateBp !== undefined, {
+    path: ['royaltyFrom'],
+    message: 'Give the royalty rate that starts in this month',
+  });
 export type ShopPatch = z.infer<typeof shopPatch>;
 
 const regionName = text('Enter a name')

@@ -83,7 +83,12 @@ export async function shopsIn(
       regionId: shops.regionId,
       regionName: regions.name,
       timeZone: shops.timeZone,
-      royaltyRateBp: shops.royaltyRateBp,
+      // The rate dated for the month (shop_royalty_rates), else the shop's own.
+      royaltyRateBp: month
+        ? sql<number>`coalesce((select r.royalty_rate_bp from shop_royalty_rates r
+            where r.shop_id = "shops"."id" and r.from_month <= ${month}
+            order by r.from_month desc limit 1), "shops"."royalty_rate_bp")`.mapWith(Number)
+        : shops.royaltyRateBp,
     })
     .from(shops)
     .innerJoin(regions, eq(regions.id, shops.regionId))

@@ -3,6 +3,7 @@ export {
   createRegion,
   listRegions,
   openShop,
+  royaltyRates,
   updateRegion,
   updateShop,
   type RegionView,

@@ -1,5 +1,5 @@
 import { eq } from '@reelwright/db';
-import { activityLog, users } from '@reelwright/db/schema';
+import { activityLog, monthCloses, users } from '@reelwright/db/schema';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { regionCreate, shopCreate, shopPatch } from '~/lib/validators/shops';
 import { closeMemoryDb, openTargetDb, testState as state } from '~/server/testing/memory-db';
@@ -137,5 +137,42 @@ describe('shops and regions', () => {
     expect(south.managers).toEqual([]);
     await expectApiError(updateRegion(net.as.owner, west.id, { managerId: net.as.tech.id }), 400);
     await updateRegion(net.as.owner, south.id, { managerId: net.as.south.id });
+  });
+
+  it('owner – a royalty rate from next month leaves this month and the earlier ones as they were; a closed month cannot be rewritten', async () => {
+    const reef = net.shops.reef.id;
+    const rate = async (month: string) =>
+      (await shopsIn(db(), undefined, month)).find((s) => s.id === reef)!.royaltyRateBp;
+    // MON is 2 November 2026: the change starts in December.
+    const shop = await updateShop(
+      net.as.owner,
+      reef,
+      { royaltyRateBp: 700, royaltyFrom: '2026-12' },
+      { now: MON },
+    );
+    expect(shop.royaltyRateBp).toBe(500);
+    expect([
+      await rate('2026-10'),
+      await rate('2026-11'),
+      await rate('2026-12'),
+      await rate('2027-03'),
+    ]).toEqual([500, 500, 700, 700]);
+    // A change from this month applies now and to this month, not to October.
+    const now = await updateShop(net.as.owner, reef, { royaltyRateBp: 650 }, { now: MON });
+    expect(now.royaltyRateBp).toBe(650);
+    expect([await rate('2026-10'), await rate('2026-11'), await rate('2026-12')]).toEqual([
+      500, 650, 700,
+    ]);
+    // With November closed, a rate from November (or earlier) is refused.
+    await db().insert(monthCloses).values({ month: '2026-11', figures: {} });
+    const error = await expectApiError(
+      updateShop(net.as.owner, reef, { royaltyRateBp: 800, royaltyFrom: '2026-10' }, { now: MON }),
+      409,
+    );
+    expect(error.detail).toBe(
+      '2026-11 is closed: a new royalty rate can start only after the last closed month.',
+    );
+    await db().delete(monthCloses);
+    expect(shopPatch.safeParse({ royaltyFrom: '2027-01' }).success).toBe(false);
   });
 });

@@ -1,5 +1,14 @@
-import { asc, eq, sql, type Tx } from '@reelwright/db';
-import { activityLog, regions, shops, users, type OpeningHours } from '@reelwright/db/schema';
+import { and, asc, eq, gte, isNull, sql, type Tx } from '@reelwright/db';
+import {
+  activityLog,
+  monthCloses,
+  regions,
+  shopRoyaltyRates,
+  shops,
+  users,
+  type OpeningHours,
+} from '@reelwright/db/schema';
+import { formatInZone } from '~/lib/format';
 import {
   WEEKDAYS,
   type RegionCreate,
@@ -120,7 +129,8 @@ export async function openShop(
 /**
  * `PATCH /api/shops/{id}`: rename, move to another region, change the posted rates, close or
  * reopen. A closed shop keeps its jobs and its figures for the months it was open; it takes no
- * new check-ins. Rates are not dated yet: a change applies to every month not yet closed.
+ * new check-ins. A royalty rate is dated (`scheduleRoyalty`); the posted labour rate applies to
+ * work billed from now on.
  */
 export async function updateShop(
   principal: Principal,
@@ -153,9 +163,26 @@ export async function updateShop(
           `${staff!.n} active ${staff!.n === 1 ? 'person works' : 'people work'} at ${before.name}: move or deactivate them before closing it.`,
         );
     }
-    const changed = (Object.keys(patch) as (keyof ShopPatch)[]).filter(
-      (k) => patch[k] !== undefined && patch[k] !== before[k],
-    );
+    const royalty =
+      patch.royaltyRateBp === undefined
+        ? null
+        : await scheduleRoyalty(tx, before, patch.royaltyRateBp, patch.royaltyFrom, now);
+    const fields = ['name', 'regionId', 'labourRateCents', 'active'] as const;
+    const changed = fields.filter((k) => patch[k] !== undefined && patch[k] !== before[k]);
+    if (royalty?.current && before.royaltyRateBp !== patch.royaltyRateBp) {
+      await tx.update(shops).set({ royaltyRateBp: patch.royaltyRateBp }).where(eq(shops.id, id));
+    }
+    if (royalty)
+      await log(tx, {
+        principal,
+        action: 'shop.royalty_rate',
+        entityType: 'shop',
+        entityId: id,
+        shopId: id,
+        before: { royaltyRateBp: royalty.previous },
+        after: { royaltyRateBp: patch.royaltyRateBp, fromMonth: royalty.fromMonth },
+        at: now,
+      });
     if (changed.length === 0) return;
     const closing = changed.includes('active') ? { closedAt: patch.active ? null : now } : {};
     await tx
@@ -179,6 +206,63 @@ export async function updateShop(
     });
   });
   return getShop(principal, id);
+}
+
+/**
+ * Dates a new royalty rate from a month on. Refused (409) when that month or a later one is
+ * closed, so a closed month's royalties are never rewritten. The first change records the rate it
+ * replaces from 2000-01, so the months before keep it.
+ */
+async function scheduleRoyalty(
+  tx: Tx,
+  shop: typeof shops.$inferSelect,
+  rateBp: number,
+  from: string | undefined,
+  now: Date,
+): Promise<{ fromMonth: string; previous: number; current: boolean }> {
+  const thisMonth = formatInZone(now, shop.timeZone, 'yyyy-MM');
+  const fromMonth = from ?? thisMonth;
+  const [closed] = await tx
+    .select({ month: monthCloses.month })
+    .from(monthCloses)
+    .where(and(gte(monthCloses.month, fromMonth), isNull(monthCloses.reopenedAt)))
+    .orderBy(asc(monthCloses.month))
+    .limit(1);
+  if (closed)
+    throw conflict(
+      `${closed.month} is closed: a new royalty rate can start only after the last closed month.`,
+    );
+  const dated = await tx
+    .select()
+    .from(shopRoyaltyRates)
+    .where(eq(shopRoyaltyRates.shopId, shop.id))
+    .orderBy(asc(shopRoyaltyRates.fromMonth));
+  const previous =
+    dated.filter((r) => r.fromMonth <= fromMonth).at(-1)?.royaltyRateBp ?? shop.royaltyRateBp;
+  if (dated.length === 0)
+    await tx
+      .insert(shopRoyaltyRates)
+      .values({ shopId: shop.id, fromMonth: '2000-01', royaltyRateBp: shop.royaltyRateBp });
+  await tx
+    .insert(shopRoyaltyRates)
+    .values({ shopId: shop.id, fromMonth, royaltyRateBp: rateBp })
+    .onConflictDoUpdate({
+      target: [shopRoyaltyRates.shopId, shopRoyaltyRates.fromMonth],
+      set: { royaltyRateBp: rateBp },
+    });
+  return { fromMonth, previous, current: fromMonth <= thisMonth };
+}
+
+/** A shop's dated royalty rates, oldest first (empty while the rate has never changed). */
+export async function royaltyRates(shopId: number) {
+  return (await db())
+    .select({
+      fromMonth: shopRoyaltyRates.fromMonth,
+      royaltyRateBp: shopRoyaltyRates.royaltyRateBp,
+    })
+    .from(shopRoyaltyRates)
+    .where(eq(shopRoyaltyRates.shopId, shopId))
+    .orderBy(asc(shopRoyaltyRates.fromMonth));
 }
 
 export interface RegionView {

@@ -94,3 +94,29 @@ export const servicePrices = pgTable(
 );
 export type ServicePrice = typeof servicePrices.$inferSelect;
 export type NewServicePrice = typeof servicePrices.$inferInsert;
+
+/**
+ * A shop's royalty rate from a month on: the month close of month M uses the row with the latest
+ * `fromMonth` ≤ M (else the shop's `royaltyRateBp`), so a change from next month leaves this
+ * month and every earlier one as they were. The first change also records the rate it replaces,
+ * from 2000-01.
+ */
+export const shopRoyaltyRates = pgTable(
+  'shop_royalty_rates',
+  {
+    id: id(),
+    shopId: integer('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    /** "YYYY-MM". */
+    fromMonth: text('from_month').notNull(),
+    royaltyRateBp: integer('royalty_rate_bp').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('shop_royalty_rates_shop_month_uq').on(t.shopId, t.fromMonth),
+    check('shop_royalty_rates_month', sql`${t.fromMonth} ~ '^[0-9]{4}-(0[1-9]|1[0-2])$'`),
+    check('shop_royalty_rates_bp_range', sql`${t.royaltyRateBp} between 0 and 10000`),
+  ],
+);
+export type ShopRoyaltyRate = typeof shopRoyaltyRates.$inferSelect;

@@ -7,7 +7,7 @@ import { can } from '~/lib/permissions';
 import { ApiError } from '~/server/errors';
 import { requirePagePrincipal } from '~/server/session';
 import { getShop } from '~/server/queries/shops';
-import { listRegions, shopCalendarView } from '~/server/shops';
+import { listRegions, royaltyRates, shopCalendarView } from '~/server/shops';
 import { ShopCalendarForm } from './_components/shop-calendar-form';
 import { ShopDetailsForm } from './_components/shop-details-form';
 
@@ -23,7 +23,11 @@ export default async function ShopHoursPage(props: { params: Promise<{ id: strin
     if (error instanceof ApiError && error.status === 404) notFound();
     throw error;
   });
-  const [shop, regions] = await Promise.all([getShop(principal, id.data), listRegions()]);
+  const [shop, regions, rates] = await Promise.all([
+    getShop(principal, id.data),
+    listRegions(),
+    royaltyRates(id.data),
+  ]);
   return (
     <>
       <p className="mb-2">
@@ -39,6 +43,7 @@ export default async function ShopHoursPage(props: { params: Promise<{ id: strin
         <ShopDetailsForm
           shop={{ ...shop, regionId: shop.region.id }}
           regions={regions.map((r) => ({ id: r.id, name: r.name }))}
+          rates={rates}
         />
         <ShopCalendarForm initial={calendar} />
       </div>

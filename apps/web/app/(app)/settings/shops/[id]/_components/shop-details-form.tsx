@@ -21,9 +21,12 @@ interface ShopDetails {
 export function ShopDetailsForm({
   shop,
   regions,
+  rates,
 }: {
   shop: ShopDetails;
   regions: { id: number; name: string }[];
+  /** Dated royalty rates, oldest first; empty while the rate has never changed. */
+  rates: { fromMonth: string; royaltyRateBp: number }[];
 }) {
   const router = useRouter();
   const [errors, setErrors] = useState<Record<string, string>>({});
@@ -60,9 +63,11 @@ export function ShopDetailsForm({
     const get = (k: string) => String(form.get(k) ?? '').trim();
     const labour = centsFromText(get('details-labour'));
     const royalty = basisPointsFromText(get('details-royalty'));
+    const from = get('details-royalty-from');
     const found: Record<string, string> = {};
     if (labour === null) found.labourRateCents = 'Give an amount such as 68.00';
     if (royalty === null) found.royaltyRateBp = 'Give a percentage such as 6 or 6.5';
+    if (from && !/^\d{4}-\d{2}$/.test(from)) found.royaltyFrom = 'Give a month such as 2027-01';
     setErrors(found);
     if (Object.keys(found).length > 0) return;
     void patch(
@@ -70,7 +75,11 @@ export function ShopDetailsForm({
         name: get('details-name'),
         regionId: Number(get('details-region')),
         labourRateCents: labour,
-        royaltyRateBp: royalty,
+        // The royalty is sent only when it changes: a new rate is dated from a month on.
+        ...((royalty !== shop.royaltyRateBp || from) && {
+          royaltyRateBp: royalty,
+          ...(from && { royaltyFrom: from }),
+        }),
       },
       'Saved.',
     );
@@ -79,7 +88,7 @@ export function ShopDetailsForm({
   return (
     <Panel
       title="Shop details"
-      description="A new rate applies to every month not yet closed; closed months keep the figures they were closed with."
+      description="A new royalty rate starts in the month you give (this month when left empty) and never in a closed month; a new labour rate applies to work billed from now on."
     >
       <div className="space-y-5">
         <FormAlert>{alert}</FormAlert>
@@ -117,6 +126,13 @@ export function ShopDetailsForm({
             inputMode="decimal"
             error={errors.royaltyRateBp}
           />
+          <TextField
+            id="details-royalty-from"
+            label="New royalty rate from (month)"
+            hint="YYYY-MM; empty for this month"
+            placeholder="2027-01"
+            error={errors.royaltyFrom}
+          />
           <div className="flex flex-wrap items-center gap-4 sm:col-span-2">
             <button
               type="submit"
@@ -145,6 +161,33 @@ export function ShopDetailsForm({
             </p>
           </div>
         </form>
+        {rates.length > 0 && (
+          <table className="w-full max-w-md text-left">
+            <caption className="text-left font-medium text-slate-800">
+              Royalty rates by month
+            </caption>
+            <thead>
+              <tr className="border-b border-sand-300 text-sm text-slate-600">
+                <th scope="col" className="py-2 pr-4 font-medium">
+                  From
+                </th>
+                <th scope="col" className="py-2 text-right font-medium">
+                  Rate
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {rates.map((r) => (
+                <tr key={r.fromMonth} className="border-b border-sand-100">
+                  <td className="py-2 pr-4">
+                    {r.fromMonth === '2000-01' ? 'Earlier months' : r.fromMonth}
+                  </td>
+                  <td className="py-2 text-right tabular-nums">{percentText(r.royaltyRateBp)}%</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
       </div>
     </Panel>
   );
