@@ -48,6 +48,8 @@ test.describe('landing pages', () => {
     test('owner – sees the people of the network in settings', async ({ page }) => {
       await page.goto('/settings');
       await expect(page.getByRole('heading', { level: 1, name: 'Settings' })).toBeVisible();
+      await page.getByRole('main').getByRole('link', { name: 'People', exact: true }).click();
+      await expect(page.getByRole('heading', { level: 1, name: 'People' })).toBeVisible();
       const people = page.getByRole('table', { name: 'People' });
       await expect(people.getByRole('cell', { name: 'auditor@saltwick.test' })).toBeVisible();
       expect(await people.locator('tbody tr').count()).toBeGreaterThanOrEqual(20);

@@ -35,6 +35,7 @@ const ITEMS: NavItem[] = [
   },
   { href: '/month-close', label: 'Month close', permission: 'month-close:read', group: 'Figures' },
   { href: '/settings', label: 'Settings', permission: 'settings:manage', group: 'Admin' },
+  { href: '/settings/people', label: 'People', permission: 'people:read', group: 'Admin' },
 ];
 
 export function navFor(

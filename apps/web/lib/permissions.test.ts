@@ -22,6 +22,8 @@ const expected: Record<Permission, Record<Role, boolean>> = {
   'month-close:read': row(Y, Y, N, N, N),
   'month-close:manage': row(Y, N, N, N, N),
   'reminders:send': row(N, N, Y, N, N),
+  'account:write': row(Y, Y, Y, Y, Y),
+  'people:read': row(Y, Y, N, N, N),
   'users:manage': row(Y, N, N, N, N),
   'settings:manage': row(Y, N, N, N, N),
   'dev-mail:read': row(Y, N, N, N, N),

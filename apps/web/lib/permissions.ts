@@ -22,6 +22,8 @@ export const PERMISSIONS = [
   'month-close:read',
   'month-close:manage',
   'reminders:send',
+  'account:write',
+  'people:read',
   'users:manage',
   'settings:manage',
   'dev-mail:read',
@@ -31,6 +33,8 @@ export type Permission = (typeof PERMISSIONS)[number];
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   owner: [
     'account:read',
+    'account:write',
+    'people:read',
     'shops:read',
     'network:read',
     'jobs:read',
@@ -48,6 +52,8 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   ],
   regional_manager: [
     'account:read',
+    'account:write',
+    'people:read',
     'shops:read',
     'network:read',
     'jobs:read',
@@ -61,6 +67,7 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   ],
   shop_lead: [
     'account:read',
+    'account:write',
     'shops:read',
     'jobs:read',
     'jobs:write',
@@ -71,9 +78,16 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     'corrective-actions:manage',
     'reminders:send',
   ],
-  technician: ['account:read', 'shops:read', 'jobs:read', 'jobs:write', 'comebacks:read'],
+  technician: [
+    'account:read',
+    'account:write',
+    'shops:read',
+    'jobs:read',
+    'jobs:write',
+    'comebacks:read',
+  ],
   // No 'shops:read': an auditor sees a shop only through the rounds assigned to them.
-  auditor: ['account:read', 'audits:read', 'audits:score'],
+  auditor: ['account:read', 'account:write', 'audits:read', 'audits:score'],
 };
 
 export function can(role: Role, permission: Permission): boolean {

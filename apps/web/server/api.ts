@@ -144,3 +144,37 @@ function parse(schema: ZodType | undefined, value: unknown, where: string): unkn
   }
   return result.data;
 }
+
+/**
+ * The same guards for the few JSON writes that need no sign-in (a password reset): the app's own
+ * origin (403), JSON of at most 16 KiB (415, 413), the body parsed (400), then act. What proves
+ * the caller's right is inside the body (a one-time token) or nothing is revealed (a request).
+ */
+export function publicRoute<B extends ZodType>(
+  config: { body: B },
+  act: (ctx: { body: z.infer<B>; request: NextRequest }) => Promise<unknown>,
+) {
+  const maxBodyBytes = 16 * 1024;
+  return async (request: NextRequest) => {
+    try {
+      assertSameOrigin(request.method, request.headers, appOrigins(request.headers));
+      assertContentType(request.headers, ['application/json'], true);
+      assertDeclaredLength(request.headers, maxBodyBytes);
+      const text = await readBodyText(request, maxBodyBytes).catch((error: unknown) => {
+        if (error instanceof ApiError) throw error;
+        throw badRequest('The request body must be JSON in UTF-8.');
+      });
+      let raw: unknown;
+      try {
+        raw = JSON.parse(text);
+      } catch {
+        throw badRequest('The request body must be JSON.');
+      }
+      const body = parse(config.body, raw, 'body') as z.infer<B>;
+      const result = await act({ body, request });
+      return withSecurityHeaders(result instanceof Response ? result : Response.json(result));
+    } catch (error) {
+      return withSecurityHeaders(problemResponse(error, request.nextUrl.pathname));
+    }
+  };
+}

@@ -40,7 +40,8 @@ export async function checkCredentials(input: unknown): Promise<SessionUser | nu
   if (!parsed.success) return null;
   const { email, password } = parsed.data;
   const [user] = await (await db()).select().from(users).where(eq(users.email, email)).limit(1);
-  if (!user || !user.active) {
+  // An invited person who has not chosen a password yet cannot sign in either.
+  if (!user || !user.active || !user.passwordHash) {
     await verify(await decoy(), password).catch(() => false);
     return null;
   }

@@ -41,6 +41,12 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
             <p className="text-right leading-tight lg:px-1 lg:text-left">
               <span className="block font-medium">{principal.name}</span>
               <span className="block text-sm text-sea-100">{ROLE_LABELS[principal.role]}</span>
+              <Link
+                href="/account"
+                className="inline-block text-sm text-white underline underline-offset-2 hover:text-sand-100"
+              >
+                Your account
+              </Link>
             </p>
             <SignOutButton />
           </div>

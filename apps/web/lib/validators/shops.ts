@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { localDate } from './common';
+import { cents, idNumber, localDate, month, text, wholeNumber } from './common';
 
 // The shop calendar form and PUT /api/shops/{id}/calendar: weekly opening hours and closed dates.
 
@@ -70,3 +70,80 @@ export function parseDayHours(
 export function formatDayHours(spans: readonly { open: string; close: string }[]): string {
   return spans.map((s) => `${s.open}–${s.close}`).join(', ');
 }
+
+/** An IANA time zone the runtime knows, e.g. "America/Denver". */
+export const timeZone = z
+  .string({ error: 'Choose a time zone' })
+  .regex(/^[A-Za-z_]+(\/[A-Za-z0-9_+-]+){1,2}$/, {
+    error: 'Use a zone such as America/Denver',
+    abort: true,
+  })
+  .refine((zone) => {
+    try {
+      new Intl.DateTimeFormat('en-US', { timeZone: zone });
+      return true;
+    } catch {
+      return false;
+    }
+  }, 'Not a time zone this server knows');
+
+const shopName = text('Enter a name')
+  .trim()
+  .min(1, 'Enter a name')
+  .max(80, 'At most 80 characters');
+const labourRate = cents(100_000, 'Cents per hour as a whole number');
+const royaltyRate = wholeNumber(0, 10_000, 'Basis points as a whole number (500 = 5%)');
+const currency = z
+  .string({ error: 'Give a currency code such as USD' })
+  .regex(/^[A-Z]{3}$/, 'Give a three-letter currency code such as USD');
+
+/** `POST /api/shops`: open a shop with its region, zone, hours, rates and currency. */
+export const shopCreate = z.strictObject({
+  name: shopName,
+  regionId: idNumber,
+  timeZone,
+  weekly: shopCalendarInput.shape.weekly,
+  closedDates: shopCalendarInput.shape.closedDates,
+  labourRateCents: labourRate,
+  royaltyRateBp: royaltyRate,
+  currency,
+});
+export type ShopCreate = z.infer<typeof shopCreate>;
+
+/**
+ * `PATCH /api/shops/{id}`: rename, move to another region, change rates, close or reopen. A new
+ * royalty rate applies from `royaltyFrom` (a month; default the shop's current month) on.
+ */
+export const shopPatch = z
+  .strictObject({
+    name: shopName.optional(),
+    regionId: idNumber.optional(),
+    labourRateCents: labourRate.optional(),
+    royaltyRateBp: royaltyRate.optional(),
+    royaltyFrom: month.optional(),
+    active: z.boolean({ error: 'true or false' }).optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, 'Change at least one field')
+  .refine((v) => v.royaltyFrom === undefined || v.royaltyRateBp !== undefined, {
+    path: ['royaltyFrom'],
+    message: 'Give the royalty rate that starts in this month',
+  });
+export type ShopPatch = z.infer<typeof shopPatch>;
+
+const regionName = text('Enter a name')
+  .trim()
+  .min(1, 'Enter a name')
+  .max(80, 'At most 80 characters');
+const regionCode = z
+  .string({ error: 'Give a short code' })
+  .regex(/^[a-z][a-z0-9-]{1,23}$/, 'Lower-case letters, digits and hyphens, 2 to 24 characters');
+
+/** `POST /api/regions`. */
+export const regionCreate = z.strictObject({ name: regionName, code: regionCode });
+export type RegionCreate = z.infer<typeof regionCreate>;
+
+/** `PATCH /api/regions/{id}`: rename, or make a regional manager this region's manager. */
+export const regionPatch = z
+  .strictObject({ name: regionName.optional(), managerId: idNumber.optional() })
+  .refine((v) => Object.keys(v).length > 0, 'Change at least one field');
+export type RegionPatch = z.infer<typeof regionPatch>;

@@ -11,7 +11,7 @@ import {
 import type { CheckInInput } from '~/lib/validators/jobs';
 import { detectAtCheckIn } from '../comebacks/detect';
 import { db } from '../db';
-import { badRequest, forbidden, notFound } from '../errors';
+import { badRequest, conflict, forbidden, notFound } from '../errors';
 import type { Principal } from '../principal';
 import { localDate, promiseInstant, shopCalendar } from './calendar';
 import { flatPrice, logActivity } from './shared';
@@ -59,6 +59,7 @@ export async function checkIn(
   return conn.transaction(async (tx) => {
     const [shop] = await tx.select().from(shops).where(eq(shops.id, shopId));
     if (!shop) throw notFound('shop');
+    if (!shop.active) throw conflict(`${shop.name} is closed: it takes no new jobs.`);
     const calendar = shopCalendar(shop);
     if (input.promisedOn < localDate(now, shop.timeZone))
       throw badRequest('Some body fields are not valid.', [

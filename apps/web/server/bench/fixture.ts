@@ -222,6 +222,7 @@ export async function buildNetwork(db: Db) {
     .returning();
   return {
     shops: { dune: dune!, kelp: kelp!, reef: reef! },
+    regions: { north: north!, south: south! },
     standard: standard!,
     steps,
     customers: { ada: ada!, kai: kai! },

@@ -36,6 +36,7 @@ import {
 } from './figures';
 import type { Principal } from '../principal';
 import { auditSummaryByShop } from '../queries/audits';
+import { openDuring } from '../queries/scope';
 import { loadReference } from '../queries/network/reference';
 import { monthDates } from './period';
 
@@ -69,7 +70,12 @@ export async function networkRules(conn: Db, asOf: Date, month?: string): Promis
 }
 
 /** The shops a scope condition selects, region by region and by name (the export's order). */
-export async function shopsIn(conn: Db, where: SQL | undefined): Promise<ShopRef[]> {
+export async function shopsIn(
+  conn: Db,
+  where: SQL | undefined,
+  month?: string,
+): Promise<ShopRef[]> {
+  const open = month ? openDuring(monthDates(month).first, monthDates(month).last) : undefined;
   return conn
     .select({
       id: shops.id,
@@ -77,11 +83,16 @@ export async function shopsIn(conn: Db, where: SQL | undefined): Promise<ShopRef
       regionId: shops.regionId,
       regionName: regions.name,
       timeZone: shops.timeZone,
-      royaltyRateBp: shops.royaltyRateBp,
+      // The rate dated for the month (shop_royalty_rates), else the shop's own.
+      royaltyRateBp: month
+        ? sql<number>`coalesce((select r.royalty_rate_bp from shop_royalty_rates r
+            where r.shop_id = "shops"."id" and r.from_month <= ${month}
+            order by r.from_month desc limit 1), "shops"."royalty_rate_bp")`.mapWith(Number)
+        : shops.royaltyRateBp,
     })
     .from(shops)
     .innerJoin(regions, eq(regions.id, shops.regionId))
-    .where(where)
+    .where(and(where, open))
     .orderBy(asc(regions.name), asc(shops.name), asc(shops.id));
 }
 
@@ -300,7 +311,7 @@ export async function computeNetwork(
   rules: NetworkRules,
   audits: AuditsByShop,
 ): Promise<FrozenFigures> {
-  const shopList = await shopsIn(conn, undefined);
+  const shopList = await shopsIn(conn, undefined, month);
   const network = new TotalsAccumulator('All shops', rules);
   const regionTotals = new Map<number, TotalsAccumulator>();
   const rows: ShopFigures[] = [];

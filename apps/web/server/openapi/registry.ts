@@ -41,7 +41,22 @@ import {
 } from '~/lib/validators/network';
 import { photoConfirmRequest, photoParams, photoUploadRequest } from '~/lib/validators/photos';
 import { batchesQuery, dueQuery, sendInput, unsubscribeParams } from '~/lib/validators/reminders';
-import { shopCalendarInput } from '~/lib/validators/shops';
+import {
+  inviteAction,
+  inviteInput,
+  passwordChange,
+  passwordResetConfirm,
+  passwordResetRequest,
+  peopleQuery,
+  personPatch,
+} from '~/lib/validators/people';
+import {
+  regionCreate,
+  regionPatch,
+  shopCalendarInput,
+  shopCreate,
+  shopPatch,
+} from '~/lib/validators/shops';
 
 // Every API route in one list: path, method, who may call it and the zod schemas its handler
 // parses with. The OpenAPI document, the API reference page and the fuzz tests are built from it,
@@ -704,6 +719,46 @@ export const ROUTES: readonly RouteSpec[] = [
     example: { params: id },
   },
   {
+    method: 'post',
+    path: '/api/shops',
+    summary:
+      'Open a shop: name, region, time zone, weekly hours and closed dates, posted labour rate, royalty rate and currency (owner)',
+    permission: 'settings:manage',
+    body: shopCreate,
+    status: 201,
+    example: {
+      body: {
+        name: 'Juniper Flats',
+        regionId: 1,
+        timeZone: 'America/Denver',
+        weekly: {
+          mon: [],
+          tue: [{ open: '09:00', close: '17:00' }],
+          wed: [{ open: '09:00', close: '17:00' }],
+          thu: [{ open: '09:00', close: '17:00' }],
+          fri: [{ open: '09:00', close: '17:00' }],
+          sat: [{ open: '09:00', close: '13:00' }],
+          sun: [],
+        },
+        closedDates: ['2026-12-25'],
+        labourRateCents: 6800,
+        royaltyRateBp: 600,
+        currency: 'USD',
+      },
+    },
+  },
+  {
+    method: 'patch',
+    path: '/api/shops/{id}',
+    summary:
+      'Rename a shop, move it to another region, change its posted rates, or close / reopen it (owner)',
+    permission: 'settings:manage',
+    params: idParams,
+    body: shopPatch,
+    status: 200,
+    example: { params: id, body: { labourRateCents: 6900 } },
+  },
+  {
     method: 'get',
     path: '/api/shops/{id}/calendar',
     summary: "A shop's weekly opening hours and closed dates (owner)",
@@ -763,9 +818,121 @@ export const ROUTES: readonly RouteSpec[] = [
   {
     method: 'get',
     path: '/api/users',
-    summary: 'Every person in the network with role and scope (owner only)',
-    permission: 'users:manage',
+    summary:
+      "The people the caller may see with role, scope and status (owner: everyone; regional manager: their region's)",
+    permission: 'people:read',
+    query: peopleQuery,
     status: 200,
+    example: { query: { status: 'invited' } },
+  },
+  {
+    method: 'post',
+    path: '/api/users',
+    summary: 'Invite a person by e-mail: a one-time link to set their password (owner)',
+    permission: 'users:manage',
+    body: inviteInput,
+    status: 201,
+    example: {
+      body: {
+        name: 'Wren Alderley',
+        email: 'wren.alderley@saltwick.test',
+        role: 'technician',
+        shopId: 1,
+      },
+    },
+  },
+  {
+    method: 'get',
+    path: '/api/users/{id}',
+    summary: 'One person with their pending invitation and the history of changes to them',
+    permission: 'people:read',
+    params: idParams,
+    status: 200,
+    example: { params: id },
+  },
+  {
+    method: 'patch',
+    path: '/api/users/{id}',
+    summary:
+      "Change a person's name, role, shop or region, or deactivate / reactivate them; ends their sessions (owner)",
+    permission: 'users:manage',
+    params: idParams,
+    body: personPatch,
+    status: 200,
+    example: { params: id, body: { name: 'Ines Marlowe-Tarn' } },
+  },
+  {
+    method: 'post',
+    path: '/api/users/{id}/invite',
+    summary: "Resend a person's invitation (a fresh link) or withdraw it (owner)",
+    permission: 'users:manage',
+    params: idParams,
+    body: inviteAction,
+    status: 200,
+    example: { params: id, body: { action: 'resend' } },
+  },
+  {
+    method: 'put',
+    path: '/api/me/password',
+    summary: 'Change your own password (the current one required); every session of yours ends',
+    permission: 'account:write',
+    body: passwordChange,
+    status: 200,
+    example: {
+      body: { currentPassword: 'reelwright-demo', newPassword: 'tidewater-spool-ledger' },
+    },
+  },
+  {
+    method: 'post',
+    path: '/api/auth/password-reset',
+    summary:
+      'Ask for a password reset link by e-mail; the same 202 whether or not the address has an account',
+    permission: 'public',
+    body: passwordResetRequest,
+    status: 202,
+    example: { body: { email: 'nobody@saltwick.test' } },
+  },
+  {
+    method: 'post',
+    path: '/api/auth/password-reset/confirm',
+    summary:
+      'Set a password from an invitation or reset link, once (410 when used, withdrawn or expired)',
+    permission: 'public',
+    body: passwordResetConfirm,
+    status: 200,
+    example: {
+      body: {
+        token: 'AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA',
+        password: 'tidewater-spool-ledger',
+      },
+    },
+    notFuzzed: 'the token is checked against the database only; its own tests send bad tokens',
+  },
+  {
+    method: 'get',
+    path: '/api/regions',
+    summary: "The network's regions with their number of shops and their managers (owner)",
+    permission: 'settings:manage',
+    status: 200,
+  },
+  {
+    method: 'post',
+    path: '/api/regions',
+    summary: 'Add a region (owner)',
+    permission: 'settings:manage',
+    body: regionCreate,
+    status: 201,
+    example: { body: { name: 'Estuary Coast', code: 'estuary' } },
+  },
+  {
+    method: 'patch',
+    path: '/api/regions/{id}',
+    summary: 'Rename a region or make a regional manager its manager (owner)',
+    permission: 'settings:manage',
+    params: idParams,
+    body: regionPatch,
+    status: 200,
+    example: { params: id, body: { name: 'North Shore and Islands' } },
   },
   {
     method: 'get',

@@ -264,7 +264,7 @@ export async function getMonthClose(
 ): Promise<MonthCloseReport> {
   const now = options.now ?? clock.now();
   const conn = await db();
-  const scoped = await shopsIn(conn, shopScope(principal));
+  const scoped = await shopsIn(conn, shopScope(principal), month);
   const ids = scoped.map((s) => s.id);
   const label = scopeLabel(principal, scoped);
   const [history, close, ended, invoices] = await Promise.all([
@@ -351,7 +351,7 @@ export async function monthCloseCsv(
 ): Promise<{ filename: string; stream: ReadableStream<Uint8Array> }> {
   const now = options.now ?? clock.now();
   const conn = await db();
-  const scoped = await shopsIn(conn, shopScope(principal));
+  const scoped = await shopsIn(conn, shopScope(principal), month);
   const ids = scoped.map((s) => s.id);
   const label = scopeLabel(principal, scoped);
   const [close, invoices] = await Promise.all([

@@ -21,6 +21,16 @@ export function shopScope(principal: Principal): SQL | undefined {
   }
 }
 
+/**
+ * Shops open at some time between two local dates (inclusive, in each shop's zone): opened by the
+ * last day and not closed before the first. A shop opened later or closed earlier has no part in
+ * the period's figures.
+ */
+export function openDuring(from: string, to: string): SQL {
+  return sql`((${shops.openedAt} is null or (${shops.openedAt} at time zone ${shops.timeZone})::date <= ${to}::date)
+    and (${shops.closedAt} is null or (${shops.closedAt} at time zone ${shops.timeZone})::date >= ${from}::date))`;
+}
+
 /** The same scope applied to any table's shop column, given the ids of the shops in scope. */
 export function inShops(column: Parameters<typeof inArray>[0], shopIds: readonly number[]): SQL {
   return inArray(column, [...shopIds]);

@@ -11,6 +11,11 @@ export interface ShopSummary {
   slug: string;
   timeZone: string;
   region: { id: number; name: string };
+  /** False once the owner has closed the shop: it takes no new jobs. */
+  active: boolean;
+  labourRateCents: number;
+  royaltyRateBp: number;
+  currency: string;
   /** Jobs still being worked: checked in, on the bench or waiting on parts. */
   openJobs: number;
   waitingOnParts: number;
@@ -32,6 +37,10 @@ export async function listShops(principal: Principal, options: { id?: number } =
       name: shops.name,
       slug: shops.slug,
       timeZone: shops.timeZone,
+      active: shops.active,
+      labourRateCents: shops.labourRateCents,
+      royaltyRateBp: shops.royaltyRateBp,
+      currency: shops.currency,
       regionId: regions.id,
       regionName: regions.name,
       openJobs:
@@ -64,6 +73,10 @@ export async function listShops(principal: Principal, options: { id?: number } =
     slug: r.slug,
     timeZone: r.timeZone,
     region: { id: r.regionId, name: r.regionName },
+    active: r.active,
+    labourRateCents: r.labourRateCents,
+    royaltyRateBp: r.royaltyRateBp,
+    currency: r.currency,
     openJobs: r.openJobs,
     waitingOnParts: r.waitingOnParts,
     readyForPickup: r.readyForPickup,

@@ -26,6 +26,7 @@ import {
   IMPORT_STATUSES,
   ROYALTY_INVOICE_STATUSES,
   REMINDER_BATCH_STATUSES,
+  ACCOUNT_LINK_PURPOSES,
 } from './values';
 
 // Closed sets shared by several domains. Values are the API's words; labels belong to the UI.
@@ -112,3 +113,6 @@ export type RoyaltyInvoiceStatus = (typeof royaltyInvoiceStatus.enumValues)[numb
 
 export const reminderBatchStatus = pgEnum('reminder_batch_status', REMINDER_BATCH_STATUSES);
 export type ReminderBatchStatus = (typeof reminderBatchStatus.enumValues)[number];
+
+export const accountLinkPurpose = pgEnum('account_link_purpose', ACCOUNT_LINK_PURPOSES);
+export type AccountLinkPurpose = (typeof accountLinkPurpose.enumValues)[number];

@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { boolean, check, index, integer, pgTable, text } from 'drizzle-orm/pg-core';
 import { createdAt, id, instant } from './columns';
-import { userRole } from './enums';
+import { accountLinkPurpose, userRole } from './enums';
 import { regions, shops } from './shops';
 
 export const users = pgTable(
@@ -11,8 +11,8 @@ export const users = pgTable(
     /** Stored lower-case so sign-in is case-insensitive and unique. */
     email: text('email').notNull().unique(),
     name: text('name').notNull(),
-    /** argon2id PHC string. */
-    passwordHash: text('password_hash').notNull(),
+    /** argon2id PHC string; null for an invited person who has not set a password yet. */
+    passwordHash: text('password_hash'),
     role: userRole('role').notNull(),
     /** Scope of shop leads and technicians. */
     shopId: integer('shop_id').references(() => shops.id),
@@ -44,3 +44,30 @@ export const users = pgTable(
 );
 export type User = typeof users.$inferSelect;
 export type NewUser = typeof users.$inferInsert;
+
+/**
+ * One-time links e-mailed to a person: an invitation to set a first password, or a password
+ * reset. Only the SHA-256 of the token is stored; a link works once, until it expires or is
+ * withdrawn.
+ */
+export const accountLinks = pgTable(
+  'account_links',
+  {
+    id: id(),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id),
+    purpose: accountLinkPurpose('purpose').notNull(),
+    /** Hex SHA-256 of the token in the link. */
+    tokenHash: text('token_hash').notNull().unique(),
+    /** Who sent it (the owner for an invitation); null when the person asked for it. */
+    createdById: integer('created_by_id').references(() => users.id),
+    createdAt: createdAt(),
+    expiresAt: instant('expires_at').notNull(),
+    usedAt: instant('used_at'),
+    withdrawnAt: instant('withdrawn_at'),
+  },
+  (t) => [index('account_links_user_idx').on(t.userId, t.purpose)],
+);
+export type AccountLink = typeof accountLinks.$inferSelect;
+export type NewAccountLink = typeof accountLinks.$inferInsert;

@@ -83,6 +83,8 @@ export const EMAIL_KINDS = [
   'audit_rejected',
   'corrective_action',
   'service_reminder',
+  'invitation',
+  'password_reset',
   'other',
 ] as const;
 /** PostgreSQL enum `email_status`. */
@@ -95,3 +97,5 @@ export const IMPORT_STATUSES = ['validating', 'importing', 'imported', 'failed']
 export const ROYALTY_INVOICE_STATUSES = ['pending', 'open', 'paid', 'failed', 'void'] as const;
 /** PostgreSQL enum `reminder_batch_status`. */
 export const REMINDER_BATCH_STATUSES = ['running', 'done', 'failed'] as const;
+/** PostgreSQL enum `account_link_purpose`: what a one-time e-mailed link lets its holder do. */
+export const ACCOUNT_LINK_PURPOSES = ['invitation', 'password_reset'] as const;

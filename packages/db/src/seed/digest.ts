@@ -10,6 +10,7 @@ export const SEEDED_TABLES: readonly PgTable[] = [
   s.shops,
   s.servicePrices,
   s.users,
+  s.accountLinks,
   s.rootCauses,
   s.serviceStandards,
   s.serviceStandardSteps,

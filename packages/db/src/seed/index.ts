@@ -42,6 +42,7 @@ const INSERT_ORDER: [keyof SeedData, PgTable][] = [
   ['shops', s.shops],
   ['servicePrices', s.servicePrices],
   ['users', s.users],
+  ['accountLinks', s.accountLinks],
   ['rootCauses', s.rootCauses],
   ['serviceStandards', s.serviceStandards],
   ['serviceStandardSteps', s.serviceStandardSteps],

@@ -387,6 +387,20 @@ export const PEOPLE: readonly PersonDef[] = [
   }),
 ];
 
+/** A technician invited to Fennel Cove who has not chosen a password yet. */
+export const INVITED = {
+  email: 'hollis.trevanion@saltwick.test',
+  name: 'Hollis Trevanion',
+  shop: 'fennel-cove',
+} as const;
+
+/** A former Marram Point technician, deactivated when they left. */
+export const FORMER = {
+  email: 'bramwell.stonehouse@saltwick.test',
+  name: 'Bramwell Stonehouse',
+  shop: 'marram-point',
+} as const;
+
 export const DEMO_PASSWORD = 'reelwright-demo';
 
 /** The accounts the README lists. */

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { jobTurnaround, type ShopCalendar } from '@reelwright/metrics';
 import type {
   ComebackAttribution,
@@ -31,7 +32,16 @@ import {
   type PartDef,
   type StepDef,
 } from './catalog';
-import { holidays, NETWORK_NAME, PEOPLE, REGIONS, SHOPS, type ShopDef } from './network';
+import {
+  FORMER,
+  holidays,
+  INVITED,
+  NETWORK_NAME,
+  PEOPLE,
+  REGIONS,
+  SHOPS,
+  type ShopDef,
+} from './network';
 import { Rng } from './random';
 
 const MINUTE = 60_000;
@@ -52,6 +62,7 @@ export interface SeedData {
   shops: Row[];
   servicePrices: Row[];
   users: Row[];
+  accountLinks: Row[];
   rootCauses: Row[];
   serviceStandards: Row[];
   serviceStandardSteps: Row[];
@@ -215,6 +226,7 @@ export function generate(options: GenerateOptions): SeedData {
     shops: [],
     servicePrices: [],
     users: [],
+    accountLinks: [],
     rootCauses: [],
     serviceStandards: [],
     serviceStandardSteps: [],
@@ -320,6 +332,45 @@ export function generate(options: GenerateOptions): SeedData {
       shop.staffIds.push(id);
       if (p.role === 'shop_lead') shop.leadId = id;
     }
+  });
+  // Beside the bench staff, so the jobs do not change: someone invited who has not set a password
+  // yet (their link was sent yesterday), and a technician who has left.
+  const invitedId = PEOPLE.length + 1;
+  data.users.push(
+    {
+      id: invitedId,
+      email: INVITED.email,
+      name: INVITED.name,
+      passwordHash: null,
+      role: 'technician',
+      shopId: shopBySlug.get(INVITED.shop)!.id,
+      regionId: null,
+      isDemo: false,
+      active: true,
+      createdAt: new Date(nowMs - DAY),
+    },
+    {
+      id: PEOPLE.length + 2,
+      email: FORMER.email,
+      name: FORMER.name,
+      passwordHash: options.passwordHash,
+      role: 'technician',
+      shopId: shopBySlug.get(FORMER.shop)!.id,
+      regionId: null,
+      isDemo: false,
+      active: false,
+      createdAt: setupAt,
+    },
+  );
+  data.accountLinks.push({
+    id: 1,
+    userId: invitedId,
+    purpose: 'invitation',
+    // Nobody holds the token: the owner resends the invitation to get a working link.
+    tokenHash: createHash('sha256').update(`seed:${options.seed}:invitation`).digest('hex'),
+    createdById: 1,
+    createdAt: new Date(nowMs - DAY),
+    expiresAt: new Date(nowMs + 6 * DAY),
   });
   for (const shop of shops) {
     const techs = shop.staffIds.filter((id) => id !== shop.leadId);

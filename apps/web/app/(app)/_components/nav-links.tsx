@@ -29,6 +29,13 @@ function grouped(items: NavLinkItem[]) {
 export function NavLinks({ items }: { items: NavLinkItem[] }) {
   const pathname = usePathname();
   const [open, setOpen] = useState(false);
+  // The longest section path the page is under: /settings/people is People, not Settings.
+  const current = items
+    .filter((i) => (i.href === '/' ? pathname === '/' : pathname.startsWith(i.href)))
+    .reduce<string | null>(
+      (best, i) => (!best || i.href.length > best.length ? i.href : best),
+      null,
+    );
   return (
     <>
       <button
@@ -57,8 +64,7 @@ export function NavLinks({ items }: { items: NavLinkItem[] }) {
             )}
             <ul className="space-y-0.5">
               {group.items.map((item) => {
-                const active =
-                  item.href === '/' ? pathname === '/' : pathname.startsWith(item.href);
+                const active = item.href === current;
                 return (
                   <li key={item.href}>
                     <Link

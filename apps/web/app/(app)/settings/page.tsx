@@ -2,9 +2,9 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { NotAllowed, PageHeader, Panel } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
-import { can, ROLE_LABELS } from '~/lib/permissions';
+import { can } from '~/lib/permissions';
 import { listShops } from '~/server/queries/shops';
-import { listPeople } from '~/server/queries/users';
+import { listPeople } from '~/server/people';
 import { requirePagePrincipal } from '~/server/session';
 import { recentSignInBlocks } from '~/server/sign-in-throttle';
 
@@ -15,7 +15,7 @@ export default async function SettingsPage() {
   const principal = await requirePagePrincipal();
   if (!can(principal.role, 'settings:manage')) return <NotAllowed />;
   const [people, shops, blocks] = await Promise.all([
-    listPeople(),
+    listPeople(principal),
     listShops(principal),
     recentSignInBlocks(),
   ]);
@@ -48,6 +48,17 @@ export default async function SettingsPage() {
           title="Shops"
           description="Each shop's region, time zone and opening hours; all times at a shop are shown in its zone, and turnaround counts the hours it is open."
         >
+          <p className="mb-3">
+            <Link
+              href="/settings/shops"
+              className="inline-flex min-h-11 items-center font-medium text-sea-700 underline underline-offset-2 hover:text-sea-900"
+            >
+              Shops and regions
+            </Link>
+            <span className="block text-slate-600">
+              Open a shop, rename, move or close one, and manage the regions.
+            </span>
+          </p>
           <div className="overflow-x-auto">
             <table className="w-full min-w-[36rem] text-left">
               <caption className="sr-only">Shops</caption>
@@ -90,41 +101,19 @@ export default async function SettingsPage() {
             </table>
           </div>
         </Panel>
-        <Panel title="People" description={`${people.length} accounts across all roles.`}>
-          <div className="overflow-x-auto">
-            <table className="w-full min-w-[40rem] text-left">
-              <caption className="sr-only">People</caption>
-              <thead>
-                <tr className="border-b border-sand-300 text-sm text-slate-600">
-                  <th scope="col" className="py-2 pr-4 font-medium">
-                    Name
-                  </th>
-                  <th scope="col" className="py-2 pr-4 font-medium">
-                    E-mail
-                  </th>
-                  <th scope="col" className="py-2 pr-4 font-medium">
-                    Role
-                  </th>
-                  <th scope="col" className="py-2 font-medium">
-                    Works at
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {people.map((p) => (
-                  <tr key={p.id} className="border-b border-sand-100">
-                    <th scope="row" className="py-3 pr-4 font-medium">
-                      {p.name}
-                      {!p.active && <span className="ml-2 text-sm text-slate-600">(inactive)</span>}
-                    </th>
-                    <td className="py-3 pr-4">{p.email}</td>
-                    <td className="py-3 pr-4">{ROLE_LABELS[p.role]}</td>
-                    <td className="py-3">{p.shopName ?? p.regionName ?? 'Whole network'}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+        <Panel
+          title="People"
+          description={`${people.filter((p) => p.status === 'active').length} active accounts, ${people.filter((p) => p.status === 'invited').length} invited, ${people.filter((p) => p.status === 'deactivated').length} deactivated.`}
+        >
+          <Link
+            href="/settings/people"
+            className="inline-flex min-h-11 items-center font-medium text-sea-700 underline underline-offset-2 hover:text-sea-900"
+          >
+            People
+          </Link>
+          <p className="text-slate-600">
+            Invite people, change their role or shop, and deactivate those who have left.
+          </p>
         </Panel>
         <Panel
           title="Sign-in blocks"

@@ -1,10 +1,25 @@
-// GET /api/users – every person in the network with role and scope (owner only)
+// GET, POST /api/users – the people the caller may see (owner: everyone; regional manager: their region's); POST invites a person by e-mail (owner)
+import { inviteInput, peopleQuery } from '~/lib/validators/people';
 import { route } from '~/server/api';
-import { listPeople } from '~/server/queries/users';
+import { deliverSoon } from '~/server/mail/deliver-soon';
 import { otherMethods } from '~/server/method-not-allowed';
+import { invitePerson, listPeople } from '~/server/people';
 
-export const GET = route({ permission: 'users:manage' }, async () => ({
-  users: await listPeople(),
-}));
+export const GET = route(
+  { permission: 'people:read', query: peopleQuery },
+  async ({ principal, query }) => ({ users: await listPeople(principal, query) }),
+);
 
-export const { DELETE, PATCH, POST, PUT, OPTIONS } = otherMethods(['GET']);
+export const POST = route(
+  { permission: 'users:manage', body: inviteInput },
+  async ({ principal, body }) => {
+    const person = await invitePerson(principal, body);
+    deliverSoon();
+    return Response.json(person, {
+      status: 201,
+      headers: { location: `/api/users/${person.id}` },
+    });
+  },
+);
+
+export const { DELETE, PATCH, PUT, OPTIONS } = otherMethods(['GET', 'POST']);

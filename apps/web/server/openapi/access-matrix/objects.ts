@@ -17,6 +17,8 @@ import type { World } from './world';
 //   not shown to the shop); for everyone else, rounds of shops in scope. A sample is the round's
 //   first sampled job, with a photo added; missing samples are asked for in the own round.
 // - comeback, corrective action, reminder batch: one of the own / out-of-scope shop.
+// - person: a technician of the own / the first out-of-scope shop (a regional manager sees the
+//   people of their region's shops).
 // - month: months are closed for the whole network, so there is no other; 2026-11 is own.
 //
 // The owner sees the whole network: no "other" exists for them and those cases are left out.
@@ -37,6 +39,7 @@ export type Kind =
   | 'comeback'
   | 'action'
   | 'batch'
+  | 'person'
   | 'month';
 
 /** The ids of the chosen object, by the path parameter names the routes use. */
@@ -125,6 +128,10 @@ export function chooseObject(
         kind === 'comeback' ? world.comebacks : kind === 'action' ? world.actions : world.batches;
       const item = byShop(list);
       return item && { id: str(item.id) };
+    }
+    case 'person': {
+      const person = byShop(world.technicians);
+      return person && { id: str(person.id) };
     }
     case 'month':
       return which === 'own' ? { month: '2026-11' } : undefined;

@@ -60,6 +60,13 @@ export const BINDINGS: Record<string, Binding> = {
   'get /api/reminders/due': shopQuery('shop'),
   'post /api/reminders/send': { kind: 'shop', at: { body: 'shopId' } },
   'get /api/shops/{id}': { kind: 'shop' },
+  'patch /api/shops/{id}': { kind: 'shop' },
+  'post /api/shops': { kind: 'region', at: { body: 'regionId' } },
+  'patch /api/regions/{id}': { kind: 'region' },
+  'post /api/users': { kind: 'shop', at: { body: 'shopId' } },
+  'get /api/users/{id}': { kind: 'person' },
+  'patch /api/users/{id}': { kind: 'person' },
+  'post /api/users/{id}/invite': { kind: 'person' },
   'get /api/shops/{id}/calendar': { kind: 'shop' },
   'put /api/shops/{id}/calendar': { kind: 'shop' },
   'get /api/shops/{id}/metrics': { kind: 'shop' },
@@ -75,6 +82,14 @@ export const OWN_ANSWERS: Record<string, { status: number; why: string }> = {
     status: 404,
     why: 'no mail catcher is configured in the tests, and without one the route has nothing to show',
   },
+  'post /api/users/{id}/invite': {
+    status: 409,
+    why: 'every seeded technician has set a password: there is no invitation to resend',
+  },
+  'put /api/me/password': {
+    status: 400,
+    why: 'the matrix seeds a placeholder instead of a password hash, so no current password matches',
+  },
   'post /api/month-close/{month}/invoices': {
     status: 409,
     why: 'November is not closed in the seeded network, and only a closed month is invoiced',
@@ -89,6 +104,8 @@ export const OWN_ANSWERS: Record<string, { status: number; why: string }> = {
 export const NOT_IN_MATRIX: Record<string, string> = {
   'get /api/auth/{nextauth}': 'next-auth’s own handler, public; sign-in is tested end to end',
   'post /api/auth/{nextauth}': 'next-auth’s own handler, public; sign-in is tested end to end',
+  'post /api/auth/password-reset/confirm':
+    'public: the token in the body is the proof; its own tests send good, used, expired and unknown tokens',
   'post /api/webhooks/payments':
     'public and signed: who calls it is the signature, which its own tests check',
   'get /api/unsubscribe/{token}':

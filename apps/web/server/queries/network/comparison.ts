@@ -352,7 +352,7 @@ export async function computeNetwork(
   const settingsRead = loadSettings(conn);
   const [settings, shops, counts, severities, tables, reference] = await Promise.all([
     settingsRead,
-    loadShops(conn, principal),
+    loadShops(conn, principal, period),
     settingsRead.then((used) => aggregateShops(conn, null, period, asOf, used)),
     shopSeverities(conn, null),
     settingsRead.then((used) =>

@@ -10,7 +10,7 @@ import {
 import { db } from '../../db';
 import { notFound } from '../../errors';
 import type { Principal } from '../../principal';
-import { shopScope } from '../scope';
+import { openDuring, shopScope } from '../scope';
 import type { ShopRef } from './types';
 import * as clock from '~/server/clock';
 
@@ -60,7 +60,11 @@ export interface NetworkShop extends ShopRef {
  * Every shop of the network, each marked visible or not for the caller. All of them are needed
  * because each shop is judged against the whole network's rate; only visible ones leave the server.
  */
-export async function loadShops(conn: Db, principal: Principal): Promise<NetworkShop[]> {
+export async function loadShops(
+  conn: Db,
+  principal: Principal,
+  period?: { from: string; to: string },
+): Promise<NetworkShop[]> {
   const scope = shopScope(principal);
   const rows = await conn
     .select({
@@ -78,6 +82,7 @@ export async function loadShops(conn: Db, principal: Principal): Promise<Network
     })
     .from(shops)
     .innerJoin(regions, eq(regions.id, shops.regionId))
+    .where(period && openDuring(period.from, period.to))
     .orderBy(asc(regions.name), asc(shops.name));
   return rows.map((r) => ({
     id: r.id,

@@ -1,6 +1,7 @@
 'use client';
 
 import { signIn } from 'next-auth/react';
+import Link from 'next/link';
 import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
 import { signInErrorMessage, WRONG_CREDENTIALS } from '~/lib/sign-in-errors';
@@ -76,6 +77,14 @@ export function SignInForm({ initialError = null }: { initialError?: string | nu
       >
         {pending ? 'Signing in…' : 'Sign in'}
       </button>
+      <p>
+        <Link
+          href="/forgot-password"
+          className="inline-flex min-h-11 items-center font-medium text-sea-700 underline underline-offset-2 hover:text-sea-900"
+        >
+          Forgot your password?
+        </Link>
+      </p>
     </form>
   );
 }
