@@ -83,10 +83,12 @@ export const EMAIL_KINDS = [
   'audit_rejected',
   'corrective_action',
   'service_reminder',
+  'nudge',
   'other',
 ] as const;
 /** PostgreSQL enum `email_status`. */
-export const EMAIL_STATUSES = ['pending', 'sent', 'failed'] as const;
+/** `dead`: failed MAX_ATTEMPTS times; kept with its last error until the owner resends it. */
+export const EMAIL_STATUSES = ['pending', 'sent', 'failed', 'dead'] as const;
 /** PostgreSQL enum `import_kind`. */
 export const IMPORT_KINDS = ['jobs'] as const;
 /** PostgreSQL enum `import_status`. */
