@@ -76,10 +76,10 @@ pnpm typecheck
 step "unit tests (embedded PGlite)"
 pnpm test:unit
 
-step "database tests and the access matrix on a throwaway PostgreSQL server"
+step "database tests, the access matrix and the job queue on a throwaway PostgreSQL server"
 start_postgres
 pnpm --filter @reelwright/db test
-pnpm --filter @reelwright/web exec vitest run server/openapi/access-matrix.test.ts
+pnpm --filter @reelwright/web exec vitest run server/openapi/access-matrix.test.ts server/queue/
 stop_postgres
 pg_dir=""
 
