@@ -86,6 +86,9 @@ pg_dir=""
 step "build"
 pnpm --filter @reelwright/web build
 
+step "production shape: two instances on one PostgreSQL behind a round-robin balancer"
+bash tests/production/two-instances.sh
+
 step "end-to-end tests (Playwright, Chromium, next start)"
 pnpm test:e2e
 

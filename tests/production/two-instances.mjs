@@ -3,6 +3,7 @@
 // through its whole life, each e-mail delivered once, one royalty invoice per shop when both
 // instances are asked at once, and the survivor serving on after the other is killed (-9).
 import assert from 'node:assert/strict';
+import { spawn } from 'node:child_process';
 import http from 'node:http';
 import { createRequire } from 'node:module';
 import path from 'node:path';
@@ -85,7 +86,11 @@ class Client {
   async json(url, init) {
     const response = await this.fetch(url, init);
     const text = await response.text();
-    return { status: response.status, instance: response.headers.get('x-instance'), body: text ? JSON.parse(text) : null };
+    return {
+      status: response.status,
+      instance: response.headers.get('x-instance'),
+      body: text ? JSON.parse(text) : null,
+    };
   }
   post(url, body) {
     return this.json(url, {
@@ -96,7 +101,12 @@ class Client {
   }
   async signIn(email) {
     const { body } = await this.json('/api/auth/csrf');
-    const form = new URLSearchParams({ csrfToken: body.csrfToken, email, password: PASSWORD, json: 'true' });
+    const form = new URLSearchParams({
+      csrfToken: body.csrfToken,
+      email,
+      password: PASSWORD,
+      json: 'true',
+    });
     const response = await this.fetch('/api/auth/callback/credentials', {
       method: 'POST',
       headers: { 'content-type': 'application/x-www-form-urlencoded' },
@@ -112,7 +122,9 @@ async function healthy(port) {
   while (Date.now() < end) {
     try {
       if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return;
-    } catch {}
+    } catch {
+      // Not listening yet.
+    }
     await sleep(500);
   }
   throw new Error(`instance on ${port} did not start`);
@@ -159,7 +171,11 @@ const checkIns = await Promise.all(
   ),
 );
 const errors = checkIns.filter((r) => r.status !== 201);
-assert.deepEqual(errors.map((e) => [e.status, e.body]), [], 'no check-in fails');
+assert.deepEqual(
+  errors.map((e) => [e.status, e.body]),
+  [],
+  'no check-in fails',
+);
 const ids = checkIns.map((r) => r.body.id);
 assert.equal(new Set(ids).size, 200, 'job numbers are unique');
 const [{ n: jobsAfter }] = await q('select count(*)::int as n from jobs');
@@ -194,7 +210,11 @@ const direct = (port) => {
   });
 };
 const asked = await Promise.all(ports.map(direct));
-assert.deepEqual(asked.map((a) => a.status), [202, 202], JSON.stringify(asked.map((a) => a.body)));
+assert.deepEqual(
+  asked.map((a) => a.status),
+  [202, 202],
+  JSON.stringify(asked.map((a) => a.body)),
+);
 let done = null;
 for (let i = 0; i < 120 && !done; i++) {
   const month = await owner.json('/api/month-close/2026-11');
@@ -208,8 +228,25 @@ const invoices = await q(
 );
 const due = done.shops.filter((s) => s.royaltyCents > 0).length;
 assert.equal(invoices.length, due);
-assert.ok(invoices.every((r) => r.n === 1 && r.issued === 1), JSON.stringify(invoices));
+assert.ok(
+  invoices.every((r) => r.n === 1 && r.issued === 1),
+  JSON.stringify(invoices),
+);
 step(`royalties asked of both instances at once: ${invoices.length} shops, one invoice each`);
+
+// Optional capacity figures (LOAD_SECONDS): one instance on PostgreSQL, then both behind the
+// balancer, with the same load; printed, not asserted.
+if (process.env.LOAD_SECONDS) {
+  const run = (target, label) =>
+    new Promise((done) =>
+      spawn(process.execPath, ['tests/production/load.mjs'], {
+        stdio: 'inherit',
+        env: { ...process.env, LOAD_BASE: target, LOAD_LABEL: label, LOAD_ORIGIN: base },
+      }).on('exit', done),
+    );
+  await run(`http://127.0.0.1:${ports[1]}`, 'one instance on PostgreSQL');
+  await run(base, 'two instances on PostgreSQL behind the balancer');
+}
 
 // 5. Kill one instance in the middle of traffic: the other keeps serving.
 const traffic = [];
@@ -238,7 +275,9 @@ const after = await clients[1].post('/api/jobs', {
   promisedOn: '2026-12-08',
 });
 assert.equal(after.status, 201);
-step(`instance 1 killed (-9) mid-traffic: 40 of 40 later requests answered (${cutOff} in flight cut off), check-ins go on`);
+step(
+  `instance 1 killed (-9) mid-traffic: 40 of 40 later requests answered (${cutOff} in flight cut off), check-ins go on`,
+);
 
 // 6. Every e-mail caused is delivered exactly once.
 let outbox = [];
@@ -248,7 +287,8 @@ for (let i = 0; i < 120; i++) {
   await sleep(1000);
 }
 const sent = await q(`select to_address, subject, message_id from emails where status = 'sent'`);
-const caught = (await (await fetch(new URL('/messages', process.env.MAIL_CATCHER_URL))).json()).messages;
+const caught = (await (await fetch(new URL('/messages', process.env.MAIL_CATCHER_URL))).json())
+  .messages;
 assert.equal(caught.length, sent.length, `caught ${caught.length}, outbox sent ${sent.length}`);
 const keys = caught.map((m) => `${m.to}|${m.subject}`);
 assert.equal(new Set(keys).size, keys.length, 'no message caught twice');
