@@ -29,6 +29,8 @@ export function WeeklyRemindersSwitch({ initial }: { initial: boolean }) {
   const [saving, setSaving] = useState(false);
   const [status, setStatus] = useState<string | null>(null);
   const change = async (next: boolean) => {
+    // The box shows the choice at once; a refusal puts it back.
+    setOn(next);
     setSaving(true);
     setStatus(null);
     try {
@@ -40,6 +42,7 @@ export function WeeklyRemindersSwitch({ initial }: { initial: boolean }) {
       setOn(saved.weeklyReminders);
       setStatus(saved.weeklyReminders ? 'Weekly reminders are on.' : 'Weekly reminders are off.');
     } catch (error) {
+      setOn(!next);
       setStatus(message(error));
     } finally {
       setSaving(false);
