@@ -76,15 +76,18 @@ pnpm typecheck
 step "unit tests (embedded PGlite)"
 pnpm test:unit
 
-step "database tests and the access matrix on a throwaway PostgreSQL server"
+step "database tests, the access matrix and the job queue on a throwaway PostgreSQL server"
 start_postgres
 pnpm --filter @reelwright/db test
-pnpm --filter @reelwright/web exec vitest run server/openapi/access-matrix.test.ts
+pnpm --filter @reelwright/web exec vitest run server/openapi/access-matrix.test.ts server/queue/
 stop_postgres
 pg_dir=""
 
 step "build"
 pnpm --filter @reelwright/web build
+
+step "production shape: two instances on one PostgreSQL behind a round-robin balancer"
+bash tests/production/two-instances.sh
 
 step "end-to-end tests (Playwright, Chromium, next start)"
 pnpm test:e2e

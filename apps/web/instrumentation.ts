@@ -24,6 +24,11 @@ export async function register() {
     const { takeBackAbandonedImports } = await import('./server/imports/take-back');
     const takenBack = await takeBackAbandonedImports({ all: handle.driver === 'pglite' });
     if (takenBack) console.log(`Reelwright: took back ${takenBack} import(s) cut off part-way`);
+    // The job queue and this instance's workers (server/queue): mail, payment events, royalty
+    // invoices, nudges and the weekly reminders.
+    const { startQueue } = await import('./server/queue');
+    await startQueue();
+    console.log('Reelwright: job queue started');
   } catch (error) {
     // Exiting lets a supervisor (or the person starting it) see why, instead of a server that
     // answers every request with an error.

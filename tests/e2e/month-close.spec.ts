@@ -86,11 +86,17 @@ test.describe(() => {
     ]);
     expect(lines[1]).toContain(`shop,${MONTH},${MONTH_FIRST},${MONTH_LAST},closed,`);
 
+    // The click enqueues the issuing; the page follows the invoices arriving until all are out.
     await page.getByRole('button', { name: 'Issue royalty invoices' }).click();
-    await expect(page.getByText(/^7 invoices issued\./)).toBeVisible();
+    await expect(
+      page.getByText('Invoices issued: 7 of 7 shops with a royalty due have one.'),
+    ).toBeVisible({ timeout: 30_000 });
     await expect(money.getByText('Sent, unpaid')).toHaveCount(7);
     await page.getByRole('button', { name: 'Issue missing invoices' }).click();
-    await expect(page.getByText('0 invoices issued, 7 already issued.')).toBeVisible();
+    await expect(
+      page.getByText('Invoices issued: 7 of 7 shops with a royalty due have one.'),
+    ).toBeVisible({ timeout: 30_000 });
+    await expect(money.getByText('Sent, unpaid')).toHaveCount(7);
 
     const marram = (await monthJson(request)).shops.find((s) => s.shop.name === 'Marram Point')!;
     const invoiceId = marram.invoice!.stripeInvoiceId!;
@@ -117,6 +123,15 @@ test.describe(() => {
       data: payload,
     });
     expect(paid.status()).toBe(200);
+    // The webhook stores the event; the payment-event job applies it moments later.
+    await expect
+      .poll(
+        async () =>
+          (await monthJson(request)).shops.find((s) => s.shop.name === 'Marram Point')!.invoice!
+            .status,
+        { timeout: 15_000 },
+      )
+      .toBe('paid');
 
     await page.reload();
     const marramRow = money.getByRole('row', { name: /Marram Point/ });

@@ -1,6 +1,6 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { IssueResult } from '~/server/month-close/invoices';
 import type { MonthCloseReport } from '~/server/queries/month-close';
+import type { RoyaltyRequest } from '~/server/queue/royalties';
 import { fetchJson } from '../api-client';
 
 /** A server type as it arrives over JSON: instants become ISO strings. */
@@ -15,7 +15,7 @@ export type Json<T> = T extends Date
         : T;
 
 export type MonthCloseData = Json<MonthCloseReport>;
-export type IssueData = Json<IssueResult>;
+export type IssueData = Json<RoyaltyRequest>;
 
 export const monthCloseKeys = {
   all: ['month-close'] as const,
@@ -26,6 +26,11 @@ export const monthCloseQuery = (month: string) =>
   queryOptions({
     queryKey: monthCloseKeys.month(month),
     queryFn: () => fetchJson<MonthCloseData>(`/api/month-close/${month}`),
+    // While the queue issues the month's invoices, follow them arriving.
+    refetchInterval: (query) => {
+      const invoicing = query.state.data?.invoicing;
+      return invoicing && !invoicing.doneAt ? 1500 : false;
+    },
   });
 
 const post = <T>(url: string, body?: unknown) =>

@@ -1,11 +1,11 @@
 import { after } from 'next/server';
-import { deliverPending } from '../mail/outbox';
+import { deliverMailSoon } from '../queue';
 
 /** Sends queued e-mail once the response has gone; outside a request (tests) it starts at once. */
 export function deliverSoon() {
   try {
-    after(() => deliverPending());
+    after(() => deliverMailSoon());
   } catch {
-    void deliverPending();
+    void deliverMailSoon();
   }
 }

@@ -45,6 +45,11 @@ export async function outboxSummary() {
     pending: count('pending'),
     sent: count('sent'),
     failed: count('failed'),
-    lastError: rows.find((r) => r.status === 'failed')?.last_error ?? null,
+    /** Gave up after every retry: listed on the settings page with a resend button. */
+    dead: count('dead'),
+    lastError:
+      rows.find((r) => r.status === 'failed')?.last_error ??
+      rows.find((r) => r.status === 'dead')?.last_error ??
+      null,
   };
 }

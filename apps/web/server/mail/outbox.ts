@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, lt, lte, sql, type Db, type Tx } from '@reelwright/db';
+import { and, asc, desc, eq, inArray, lt, lte, sql, type Db, type Tx } from '@reelwright/db';
 import { emails, type EmailKind } from '@reelwright/db/schema';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { env } from '~/env';
@@ -47,7 +47,10 @@ export async function queueEmail(tx: Tx | Db, message: QueuedEmail): Promise<num
   return row.id;
 }
 
-/** After this many attempts a message stays failed and is no longer retried automatically. */
+/**
+ * After this many attempts a message is `dead`: no longer retried, shown to the owner with its last
+ * error (settings, "Undelivered mail") until they resend it.
+ */
 export const MAX_ATTEMPTS = 8;
 /** How long a claimed message is reserved for the caller sending it. */
 const CLAIM_LEASE_MS = 5 * 60_000;
@@ -157,7 +160,7 @@ export async function deliverPending(options: DeliverOptions = {}): Promise<Deli
         await conn
           .update(emails)
           .set({
-            status: 'failed',
+            status: message.attempts >= MAX_ATTEMPTS ? 'dead' : 'failed',
             lastError: describe(error),
             nextAttemptAt: new Date(now.getTime() + retryDelayMs(message.attempts)),
           })
@@ -172,6 +175,48 @@ export async function deliverPending(options: DeliverOptions = {}): Promise<Deli
   if (result.failed)
     console.warn(`[mail] ${result.failed} message(s) failed; they will be retried`);
   return result;
+}
+
+export interface UndeliveredEmail {
+  id: number;
+  kind: EmailKind;
+  to: string;
+  subject: string;
+  attempts: number;
+  lastError: string | null;
+  createdAt: Date;
+}
+
+/** The messages that gave up (dead), newest first, with the error of their last attempt. */
+export async function undeliveredEmails(conn: Db, limit = 50): Promise<UndeliveredEmail[]> {
+  return conn
+    .select({
+      id: emails.id,
+      kind: emails.kind,
+      to: emails.toAddress,
+      subject: emails.subject,
+      attempts: emails.attempts,
+      lastError: emails.lastError,
+      createdAt: emails.createdAt,
+    })
+    .from(emails)
+    .where(eq(emails.status, 'dead'))
+    .orderBy(desc(emails.id))
+    .limit(limit);
+}
+
+/**
+ * Puts a dead message back in the outbox with its attempts reset, to be sent by the next delivery
+ * run. Only a dead one: resending one that is pending, failing or sent changes nothing, so a second
+ * click (or two owners at once) sends it once. Returns whether it was put back.
+ */
+export async function resendEmail(conn: Db | Tx, id: number): Promise<boolean> {
+  const rows = await conn
+    .update(emails)
+    .set({ status: 'pending', attempts: 0, nextAttemptAt: new Date() })
+    .where(and(eq(emails.id, id), eq(emails.status, 'dead')))
+    .returning({ id: emails.id });
+  return rows.length > 0;
 }
 
 function describe(error: unknown): string {

@@ -31,7 +31,7 @@ import {
   partParams,
   transitionInput,
 } from '~/lib/validators/jobs';
-import { caughtMailQuery } from '~/lib/validators/mail';
+import { caughtMailQuery, reminderSettingsInput, resendMailInput } from '~/lib/validators/mail';
 import { monthExportParams, monthParams, reopenInput } from '~/lib/validators/month-close';
 import {
   comparisonQuery,
@@ -350,6 +350,15 @@ export const ROUTES: readonly RouteSpec[] = [
     notFuzzed: 'takes no input: there is nothing to get wrong',
   },
   {
+    method: 'post',
+    path: '/api/mail/resend',
+    summary: 'Put an undelivered (dead) message back in the outbox and send it again (owner)',
+    permission: 'settings:manage',
+    body: resendMailInput,
+    status: 200,
+    example: { body: { id: 1 } },
+  },
+  {
     method: 'get',
     path: '/api/health',
     summary: 'Database driver and migrations applied; no sign-in needed',
@@ -597,10 +606,11 @@ export const ROUTES: readonly RouteSpec[] = [
   {
     method: 'post',
     path: '/api/month-close/{month}/invoices',
-    summary: 'Issue one royalty invoice per shop from the closed month; never bills twice (owner)',
+    summary:
+      'Ask for one royalty invoice per shop from the closed month; a queue job issues them, never billing twice (owner)',
     permission: 'month-close:manage',
     params: monthParams,
-    status: 200,
+    status: 202,
     example: { params: { month: '2026-11' } },
   },
   {
@@ -674,6 +684,22 @@ export const ROUTES: readonly RouteSpec[] = [
     body: sendInput,
     status: 202,
     example: { body: { shopId: 1, weeks: 4 } },
+  },
+  {
+    method: 'get',
+    path: '/api/settings/reminders',
+    summary: "Whether each shop's service reminders go out by themselves on Monday morning (owner)",
+    permission: 'settings:manage',
+    status: 200,
+  },
+  {
+    method: 'put',
+    path: '/api/settings/reminders',
+    summary: 'Turn the weekly service-reminder run on or off (owner)',
+    permission: 'settings:manage',
+    body: reminderSettingsInput,
+    status: 200,
+    example: { body: { weeklyReminders: false } },
   },
   {
     method: 'get',

@@ -1,8 +1,7 @@
-import { and, eq, ne, type Db } from '@reelwright/db';
+import { and, asc, eq, isNull, ne, sql, type Db } from '@reelwright/db';
 import { paymentEvents, royaltyInvoices } from '@reelwright/db/schema';
 import Stripe from 'stripe';
 import { ApiError, badRequest } from '../errors';
-import { isUniqueViolation } from '../month-close/close';
 import { readBodyBytes } from '../request-guards';
 
 export interface WebhookOutcome {
@@ -11,6 +10,8 @@ export interface WebhookOutcome {
   /** False when the event was already recorded (a redelivery changes nothing). */
   recorded: boolean;
   royaltyInvoiceId: number | null;
+  /** The stored event, for the job that applies it. */
+  eventId?: number;
 }
 
 const HANDLED = new Set(['invoice.paid', 'invoice.payment_failed']);
@@ -48,9 +49,10 @@ function signedTimestamp(header: string): number {
 
 /**
  * Verifies a payment-provider webhook (Stripe-Signature over the raw body with the endpoint's
- * secret, stamped within five minutes of now either way) and records invoice.paid / invoice.payment_failed against the
- * royalty invoice: the event in payment_events (once per event id) and the invoice's status. A
- * missing or wrong signature is a 400 before anything is read or written.
+ * secret, stamped within five minutes of now either way) and stores invoice.paid /
+ * invoice.payment_failed in payment_events, once per event id; `processPaymentEvents` (a queue job)
+ * then applies it to the royalty invoice. A missing or wrong signature is a 400 before anything is
+ * read or written.
  */
 export async function handlePaymentWebhook(
   conn: Db,
@@ -90,57 +92,108 @@ export async function handlePaymentWebhook(
   if (!HANDLED.has(event.type))
     return { received: true, type: event.type, recorded: false, royaltyInvoiceId: null };
   const invoice = event.data.object as Stripe.Invoice;
-  return conn
-    .transaction(async (tx) => {
-      const [royalty] = invoice.id
-        ? await tx
-            .select()
-            .from(royaltyInvoices)
-            .where(eq(royaltyInvoices.stripeInvoiceId, invoice.id))
-            .for('update')
-        : [];
-      try {
-        await tx.insert(paymentEvents).values({
-          providerEventId: event.id,
-          type: event.type,
-          royaltyInvoiceId: royalty?.id ?? null,
-          payload: event as unknown as Record<string, unknown>,
-          receivedAt: now,
-        });
-      } catch (error) {
-        if (isUniqueViolation(error)) throw new Redelivered();
-        throw error;
-      }
-      if (royalty && event.type === 'invoice.paid') {
-        await tx
-          .update(royaltyInvoices)
-          .set({ status: 'paid', paidAt: new Date(event.created * 1000) })
-          .where(eq(royaltyInvoices.id, royalty.id));
-      } else if (royalty && event.type === 'invoice.payment_failed') {
-        // A failure reported after the payment went through (events can arrive out of order) is kept
-        // as an event but does not undo "paid".
-        await tx
-          .update(royaltyInvoices)
-          .set({ status: 'failed', failedAt: new Date(event.created * 1000) })
-          .where(and(eq(royaltyInvoices.id, royalty.id), ne(royaltyInvoices.status, 'paid')));
-      }
-      return {
-        received: true as const,
-        type: event.type,
-        recorded: true,
-        royaltyInvoiceId: royalty?.id ?? null,
-      };
+  const [royalty] = invoice.id
+    ? await conn
+        .select({ id: royaltyInvoices.id })
+        .from(royaltyInvoices)
+        .where(eq(royaltyInvoices.stripeInvoiceId, invoice.id))
+    : [];
+  // Stored first, processed by the payment-event job: the provider gets its answer at once, and a
+  // failure while applying the event is retried by the queue instead of by the provider.
+  const [stored] = await conn
+    .insert(paymentEvents)
+    .values({
+      providerEventId: event.id,
+      type: event.type,
+      royaltyInvoiceId: royalty?.id ?? null,
+      payload: event as unknown as Record<string, unknown>,
+      receivedAt: now,
     })
-    .catch((error: unknown) => {
-      if (error instanceof Redelivered)
-        return {
-          received: true as const,
-          type: event.type,
-          recorded: false,
-          royaltyInvoiceId: null,
-        };
-      throw error;
-    });
+    .onConflictDoNothing({ target: paymentEvents.providerEventId })
+    .returning({ id: paymentEvents.id });
+  return {
+    received: true,
+    type: event.type,
+    recorded: Boolean(stored),
+    royaltyInvoiceId: royalty?.id ?? null,
+    ...(stored && { eventId: stored.id }),
+  };
 }
 
-class Redelivered extends Error {}
+/**
+ * The payment-event job: applies one stored event (or, without an id, every one not yet applied)
+ * to its royalty invoice. The event row is locked and marked processed in the same transaction as
+ * the invoice's change, so running it twice, or on two instances at once, changes the invoice
+ * once. A failure is counted on the event with its message and rethrown for the queue to retry.
+ */
+export async function processPaymentEvents(conn: Db, eventId?: number): Promise<number> {
+  const ids = eventId
+    ? [eventId]
+    : (
+        await conn
+          .select({ id: paymentEvents.id })
+          .from(paymentEvents)
+          .where(isNull(paymentEvents.processedAt))
+          .orderBy(asc(paymentEvents.id))
+          .limit(100)
+      ).map((r) => r.id);
+  let applied = 0;
+  for (const id of ids) {
+    try {
+      if (await processOne(conn, id)) applied += 1;
+    } catch (error) {
+      await conn
+        .update(paymentEvents)
+        .set({
+          processAttempts: sql`${paymentEvents.processAttempts} + 1`,
+          lastError: (error instanceof Error ? error.message : String(error)).slice(0, 500),
+        })
+        .where(eq(paymentEvents.id, id));
+      throw error;
+    }
+  }
+  return applied;
+}
+
+async function processOne(conn: Db, id: number): Promise<boolean> {
+  return conn.transaction(async (tx) => {
+    const [event] = await tx
+      .select()
+      .from(paymentEvents)
+      .where(and(eq(paymentEvents.id, id), isNull(paymentEvents.processedAt)))
+      .for('update', { skipLocked: true });
+    if (!event) return false;
+    const payload = event.payload as unknown as Stripe.Event | null;
+    const invoice = payload?.data.object as Stripe.Invoice | undefined;
+    const [royalty] = invoice?.id
+      ? await tx
+          .select({ id: royaltyInvoices.id })
+          .from(royaltyInvoices)
+          .where(eq(royaltyInvoices.stripeInvoiceId, invoice.id))
+          .for('update')
+      : [];
+    const at = new Date((payload?.created ?? 0) * 1000);
+    if (royalty && event.type === 'invoice.paid') {
+      await tx
+        .update(royaltyInvoices)
+        .set({ status: 'paid', paidAt: at })
+        .where(eq(royaltyInvoices.id, royalty.id));
+    } else if (royalty && event.type === 'invoice.payment_failed') {
+      // A failure reported after the payment went through (events can arrive out of order) is kept
+      // as an event but does not undo "paid".
+      await tx
+        .update(royaltyInvoices)
+        .set({ status: 'failed', failedAt: at })
+        .where(and(eq(royaltyInvoices.id, royalty.id), ne(royaltyInvoices.status, 'paid')));
+    }
+    await tx
+      .update(paymentEvents)
+      .set({
+        processedAt: new Date(),
+        royaltyInvoiceId: royalty?.id ?? event.royaltyInvoiceId,
+        lastError: null,
+      })
+      .where(eq(paymentEvents.id, id));
+    return true;
+  });
+}

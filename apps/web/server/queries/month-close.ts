@@ -83,6 +83,11 @@ export interface MonthCloseReport {
   totals: TotalsFigures;
   /** Closed months only: frozen figures that differ from the live data at the same as-of. */
   differences: Difference[] | null;
+  /**
+   * The owner's latest request to issue the month's royalty invoices, which a queue job carries
+   * out shop by shop; `doneAt` is null while it runs (the page follows the invoices arriving).
+   */
+  invoicing: { requestedAt: Date; doneAt: Date | null } | null;
 }
 
 const closedBy = alias(users, 'closed_by');
@@ -309,6 +314,9 @@ export async function getMonthClose(
       shops: frozenRows.map(withInvoice),
       totals: frozenTotals(principal, frozen, label),
       differences: differences(frozenRows, live),
+      invoicing: close.invoicesRequestedAt
+        ? { requestedAt: close.invoicesRequestedAt, doneAt: close.invoicesDoneAt }
+        : null,
     };
   }
   const rules = await networkRules(conn, now, month);
@@ -325,6 +333,7 @@ export async function getMonthClose(
     shops: rows.map(withInvoice),
     totals: await liveTotals(conn, label, rows, ids, month, rules),
     differences: null,
+    invoicing: null,
   };
 }
 

@@ -1,4 +1,4 @@
-import { index, integer, pgTable, text } from 'drizzle-orm/pg-core';
+import { date, index, integer, pgTable, text, uniqueIndex } from 'drizzle-orm/pg-core';
 import { createdAt, id, instant } from './columns';
 import { emailKind, emailStatus } from './enums';
 import { jobs } from './jobs';
@@ -42,3 +42,24 @@ export const emails = pgTable(
 );
 export type Email = typeof emails.$inferSelect;
 export type NewEmail = typeof emails.$inferInsert;
+
+/**
+ * What a scheduled job has done for one item on one day (a nudge about a comeback or a corrective
+ * action, a shop's weekly reminder run): the unique key makes a second run, on another instance or
+ * after a retry, find the mark taken and do nothing, so each happens at most once a day.
+ */
+export const scheduledMarks = pgTable(
+  'scheduled_marks',
+  {
+    id: id(),
+    /** 'comeback_nudge' | 'action_nudge' | 'weekly_reminders'. */
+    kind: text('kind').notNull(),
+    entityId: integer('entity_id').notNull(),
+    /** The local date (of the shop) the mark is for. */
+    onDate: date('on_date', { mode: 'string' }).notNull(),
+    emailId: integer('email_id').references(() => emails.id),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('scheduled_marks_kind_entity_date_key').on(t.kind, t.entityId, t.onDate)],
+);
+export type ScheduledMark = typeof scheduledMarks.$inferSelect;

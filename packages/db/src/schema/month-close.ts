@@ -22,6 +22,14 @@ export const monthCloses = pgTable(
     reopenedAt: instant('reopened_at'),
     reopenedById: integer('reopened_by_id').references(() => users.id),
     reopenReason: text('reopen_reason'),
+    /**
+     * When the owner asked for the month's royalty invoices: a queue job issues them and clears
+     * nothing; the job (or the minute's sweep, if an instance died) runs while this is set and the
+     * invoices are not all issued, and sets invoicesDoneAt when they are.
+     */
+    invoicesRequestedAt: instant('invoices_requested_at'),
+    invoicesRequestedById: integer('invoices_requested_by_id').references(() => users.id),
+    invoicesDoneAt: instant('invoices_done_at'),
   },
   (t) => [
     index('month_closes_month_idx').on(t.month),
@@ -79,6 +87,13 @@ export const paymentEvents = pgTable('payment_events', {
   royaltyInvoiceId: integer('royalty_invoice_id').references(() => royaltyInvoices.id),
   payload: jsonb('payload').$type<Record<string, unknown>>(),
   receivedAt: instant('received_at').notNull().defaultNow(),
+  /**
+   * Set when a queue job applied the event to its invoice: the webhook stores the event and
+   * answers; processing happens after, once per event id however often it is delivered or run.
+   */
+  processedAt: instant('processed_at'),
+  processAttempts: integer('process_attempts').notNull().default(0),
+  lastError: text('last_error'),
 });
 export type PaymentEvent = typeof paymentEvents.$inferSelect;
 export type NewPaymentEvent = typeof paymentEvents.$inferInsert;

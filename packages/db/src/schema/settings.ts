@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { check, integer, numeric, pgTable, text } from 'drizzle-orm/pg-core';
+import { boolean, check, integer, numeric, pgTable, text } from 'drizzle-orm/pg-core';
 import { id, updatedAt } from './columns';
 import { comebackAttribution, inspectionLevel } from './enums';
 import { users } from './users';
@@ -30,6 +30,11 @@ export const networkSettings = pgTable(
     /** Audit score at or above which a sample meets the standard (absent a critical miss). */
     auditPassMark: integer('audit_pass_mark').notNull().default(85),
     correctiveActionDueDays: integer('corrective_action_due_days').notNull().default(14),
+    /**
+     * Whether each shop's service reminders go out by themselves on Monday morning in the shop's
+     * time zone (the weekly run on the job queue); off, they are sent only by hand.
+     */
+    weeklyReminders: boolean('weekly_reminders').notNull().default(true),
     /** ISO 4217 code of all money amounts. */
     currency: text('currency').notNull().default('USD'),
     updatedById: integer('updated_by_id').references(() => users.id),

@@ -85,10 +85,12 @@ export const EMAIL_KINDS = [
   'service_reminder',
   'invitation',
   'password_reset',
+  'nudge',
   'other',
 ] as const;
 /** PostgreSQL enum `email_status`. */
-export const EMAIL_STATUSES = ['pending', 'sent', 'failed'] as const;
+/** `dead`: failed MAX_ATTEMPTS times; kept with its last error until the owner resends it. */
+export const EMAIL_STATUSES = ['pending', 'sent', 'failed', 'dead'] as const;
 /** PostgreSQL enum `import_kind`. */
 export const IMPORT_KINDS = ['jobs'] as const;
 /** PostgreSQL enum `import_status`. */

@@ -3,10 +3,12 @@ import Link from 'next/link';
 import { NotAllowed, PageHeader, Panel } from '~/components/ui';
 import { formatInZone } from '~/lib/format';
 import { can } from '~/lib/permissions';
+import { mailAndReminders } from '~/server/queries/mail';
 import { listShops } from '~/server/queries/shops';
 import { listPeople } from '~/server/people';
 import { requirePagePrincipal } from '~/server/session';
 import { recentSignInBlocks } from '~/server/sign-in-throttle';
+import { UndeliveredMail, WeeklyRemindersSwitch } from './_components/mail-and-reminders';
 
 export const metadata: Metadata = { title: 'Settings' };
 export const dynamic = 'force-dynamic';
@@ -14,11 +16,13 @@ export const dynamic = 'force-dynamic';
 export default async function SettingsPage() {
   const principal = await requirePagePrincipal();
   if (!can(principal.role, 'settings:manage')) return <NotAllowed />;
-  const [people, shops, blocks] = await Promise.all([
+  const [people, shops, blocks, mail] = await Promise.all([
     listPeople(principal),
     listShops(principal),
     recentSignInBlocks(),
+    mailAndReminders(),
   ]);
+
   return (
     <>
       <PageHeader title="Settings" lead="The network's shops and the people who work in them." />
@@ -114,6 +118,23 @@ export default async function SettingsPage() {
           <p className="text-slate-600">
             Invite people, change their role or shop, and deactivate those who have left.
           </p>
+        </Panel>
+        <Panel
+          title="Mail and reminders"
+          description="E-mail goes out from a queue and is retried with growing waits; a message that still fails after every retry is listed here with its last error until it is resent."
+        >
+          <WeeklyRemindersSwitch initial={mail.weeklyReminders} />
+          <h3 className="mt-6 font-semibold text-slate-900">Undelivered mail</h3>
+          <UndeliveredMail
+            rows={mail.undelivered.map((m) => ({
+              id: m.id,
+              to: m.to,
+              subject: m.subject,
+              attempts: m.attempts,
+              lastError: m.lastError,
+              queued: formatInZone(m.createdAt, 'UTC', 'd MMM yyyy, HH:mm'),
+            }))}
+          />
         </Panel>
         <Panel
           title="Sign-in blocks"

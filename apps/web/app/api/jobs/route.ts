@@ -2,7 +2,7 @@
 import { checkInInput, jobListQuery } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { checkIn } from '~/server/bench/check-in';
-import { deliverPending } from '~/server/mail/outbox';
+import { deliverMailSoon } from '~/server/queue';
 import { getJobDetail, listJobs } from '~/server/queries/bench';
 import { otherMethods } from '~/server/method-not-allowed';
 
@@ -16,7 +16,7 @@ export const POST = route(
   async ({ principal, body }) => {
     const { id, emailsQueued } = await checkIn(principal, body);
     // A comeback's review e-mail goes after the commit, never awaited: mail must not hold up check-in.
-    if (emailsQueued > 0) void deliverPending();
+    if (emailsQueued > 0) void deliverMailSoon();
     return Response.json(await getJobDetail(principal, id), {
       status: 201,
       headers: { location: `/api/jobs/${id}` },

@@ -94,6 +94,10 @@ export const OWN_ANSWERS: Record<string, { status: number; why: string }> = {
     status: 409,
     why: 'November is not closed in the seeded network, and only a closed month is invoiced',
   },
+  'post /api/mail/resend': {
+    status: 404,
+    why: 'the seeded network has no undelivered (dead) message, and only a dead one is resent',
+  },
   'post /api/month-close/{month}/reopen': {
     status: 409,
     why: 'November is not closed in the seeded network: there is nothing to reopen',

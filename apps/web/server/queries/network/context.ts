@@ -115,7 +115,8 @@ export function openMinutesPerDay(
   return value;
 }
 
-// A shop's hours rarely change; measuring them is the slow part of loading the shops.
+// A shop's hours rarely change; measuring them is the slow part of loading the shops. Keyed by
+// the zone and hours themselves, so each instance's copy is right without any coordination.
 const dayLengths = new Map<string, number | null>();
 
 function measureOpenDay(

@@ -36,7 +36,8 @@ interface Cached {
 // The reference curve is twelve months of the whole network: a quarter of an hour moves it by a
 // few days' follow-up of a few jobs among tens of thousands, far below its own uncertainty, while
 // reading its open months is the dearest part of a request. So it is kept, per database, for a
-// short while; the period's own figures are never cached.
+// short while; the period's own figures are never cached. Each instance keeps its own: two may
+// differ by at most the same quarter of an hour, and a change of settings is a new key in both.
 const CACHE_MS = 15 * 60_000;
 const cache = new WeakMap<Db, Map<string, Cached>>();
 

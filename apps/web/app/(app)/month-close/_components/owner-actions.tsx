@@ -34,7 +34,6 @@ export function OwnerActions({
   const [reopening, setReopening] = useState(false);
   const [reason, setReason] = useState('');
   const [reasonError, setReasonError] = useState<string | null>(null);
-  const [issued, setIssued] = useState<IssueData | null>(null);
   const key = monthCloseKeys.month(report.month);
   const store = (data: MonthCloseData) => queryClient.setQueryData(key, data);
   const close = useMutation({
@@ -49,14 +48,14 @@ export function OwnerActions({
     onSuccess: (data) => {
       setReopening(false);
       setReason('');
-      setIssued(null);
       store(data);
     },
   });
   const issue = useMutation({
     mutationFn: () => issueInvoicesRequest(report.month),
-    onSuccess: (result) => {
-      setIssued(result);
+    onSuccess: (request: IssueData) => {
+      const current = queryClient.getQueryData<MonthCloseData>(key);
+      if (current) store({ ...current, invoicing: request });
       void queryClient.invalidateQueries({ queryKey: key });
     },
   });
@@ -76,6 +75,7 @@ export function OwnerActions({
   const failure = close.error ?? reopen.error ?? issue.error;
   const invoiced = report.shops.filter((s) => s.invoice).length;
   const due = report.shops.filter((s) => s.royaltyCents > 0).length;
+  const running = Boolean(report.invoicing && !report.invoicing.doneAt);
   const withStatus = (status: string) =>
     report.shops.filter((s) => s.invoice?.status === status).length;
   const standing = [
@@ -132,9 +132,9 @@ export function OwnerActions({
               type="button"
               className={primary}
               onClick={() => issue.mutate()}
-              disabled={issue.isPending || !paymentsReady}
+              disabled={issue.isPending || running || !paymentsReady}
             >
-              {issue.isPending
+              {issue.isPending || running
                 ? 'Issuing invoices…'
                 : invoiced
                   ? 'Issue missing invoices'
@@ -189,21 +189,13 @@ export function OwnerActions({
         </form>
       )}
       <div aria-live="polite">
-        {issued && (
+        {report.status === 'closed' && report.invoicing && (
           <p className="mt-4 rounded-md border border-sea-200 bg-sea-50 px-4 py-3 text-sea-900">
-            {n(issued.issued)} invoice{issued.issued === 1 ? '' : 's'} issued
-            {issued.alreadyIssued ? `, ${n(issued.alreadyIssued)} already issued` : ''}
-            {issued.nothingDue ? `, ${n(issued.nothingDue)} with nothing due` : ''}
-            {issued.failed ? `, ${n(issued.failed)} failed` : ''}.
+            {running
+              ? `Issuing royalty invoices: ${n(invoiced)} of ${n(due)} shops done.`
+              : `Invoices issued: ${n(invoiced)} of ${n(due)} shops with a royalty due have one.`}
           </p>
         )}
-        {issued?.invoices
-          .filter((i) => i.outcome === 'failed')
-          .map((i) => (
-            <p key={i.shopId} className="mt-2 text-brick-700">
-              {i.shopName}: {i.error}
-            </p>
-          ))}
       </div>
       {failure && (
         <p role="alert" className="mt-4 text-brick-700">

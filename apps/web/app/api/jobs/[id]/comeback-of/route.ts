@@ -3,7 +3,7 @@ import { comebackLinkInput } from '~/lib/validators/comebacks';
 import { idParams } from '~/lib/validators/common';
 import { route } from '~/server/api';
 import { linkComeback } from '~/server/comebacks/detect';
-import { deliverPending } from '~/server/mail/outbox';
+import { deliverMailSoon } from '~/server/queue';
 import { jobComeback } from '~/server/queries/comebacks';
 import { otherMethods } from '~/server/method-not-allowed';
 
@@ -17,7 +17,7 @@ export const POST = route(
   async ({ principal, params, body }) => {
     const { comebackId, emailsQueued } = await linkComeback(principal, params.id, body);
     // Sent after the commit and never awaited: mail must not hold up or undo the link.
-    if (emailsQueued > 0) void deliverPending();
+    if (emailsQueued > 0) void deliverMailSoon();
     return Response.json(
       { comebackId, ...(await jobComeback(principal, params.id)) },
       { status: 201, headers: { location: `/api/comebacks/${comebackId}` } },

@@ -3,7 +3,7 @@ import { idParams } from '~/lib/validators/common';
 import { transitionInput } from '~/lib/validators/jobs';
 import { route } from '~/server/api';
 import { transitionJob } from '~/server/bench/jobs';
-import { deliverPending } from '~/server/mail/outbox';
+import { deliverMailSoon } from '~/server/queue';
 import { getJobDetail } from '~/server/queries/bench';
 import { otherMethods } from '~/server/method-not-allowed';
 
@@ -12,7 +12,7 @@ export const POST = route(
   async ({ principal, params, body }) => {
     const { emailQueued } = await transitionJob(principal, params.id, body);
     // Sent after the commit and never awaited: mail must not hold up or undo the move.
-    if (emailQueued) void deliverPending();
+    if (emailQueued) void deliverMailSoon();
     return getJobDetail(principal, params.id);
   },
 );
