@@ -84,6 +84,10 @@ const READERS: { account: AccountName; stories: string[] }[] = [
   { account: 'managerSouth', stories: ['Brackwater Flats'] },
 ];
 
+// The owner's page holds every shop with its charts; reading it and checking it with axe takes
+// most of a minute on a shared two-core machine.
+test.describe.configure({ timeout: 120_000 });
+
 for (const { account, stories } of READERS) {
   test(`${account} – finds the demo's story on the default network page and says why that period`, async ({
     browser,
