@@ -12,7 +12,8 @@ import {
 
 /**
  * Under `next start` and `next dev`, in a worker thread at low priority (the bundler builds the
- * worker from check.worker.ts), its rows handed over a thousand at a time. Under the unit tests
+ * worker from check.worker.ts), its rows handed over a thousand at a time, each piece asked for
+ * once the last one is taken. Under the unit tests
  * there is no bundled worker to start, and no request waiting: the check runs in place.
  */
 export function checkFileOffThread(input: CheckInput): Promise<CheckResult> {
@@ -35,6 +36,8 @@ export function checkFileOffThread(input: CheckInput): Promise<CheckResult> {
     worker.on('message', (message: CheckMessage) => {
       if ('rows' in message) {
         for (const row of message.rows) valid.push(row);
+        // The next piece after a turn for whatever else is waiting.
+        setImmediate(() => worker.postMessage('next'));
       } else if ('done' in message) {
         settle(() => resolve({ ...message.done, valid }));
       } else {

@@ -13,11 +13,19 @@ try {
 const post = (message: CheckMessage) => parentPort!.postMessage(message);
 try {
   const { valid, ...rest } = checkFile(workerData as CheckInput);
-  // In pieces, so that the server's thread takes them in turn between requests.
-  for (let i = 0; i < valid.length; i += CHECKED_PIECE) {
-    post({ rows: valid.slice(i, i + CHECKED_PIECE) });
-  }
-  post({ done: rest });
+  // In pieces, each sent when the server's thread asks for it: posted all at once, they would be
+  // taken in one go (a second of decoding on that thread), not in turn with requests.
+  let next = 0;
+  const send = () => {
+    if (next < valid.length) {
+      post({ rows: valid.slice(next, next + CHECKED_PIECE) });
+      next += CHECKED_PIECE;
+    } else {
+      post({ done: rest });
+    }
+  };
+  parentPort!.on('message', send);
+  send();
 } catch (error) {
   post({ failed: error instanceof Error ? error.message : String(error) });
 }
