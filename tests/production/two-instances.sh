@@ -61,4 +61,4 @@ for i in 1 2; do
   echo "instance $i: pid $! port $p"
 done
 export TWO_BALANCER_PORT="$balancer_port" TWO_PORTS="${ports[*]}" TWO_PIDS="${pids[2]} ${pids[3]}" TWO_LOGS="$work"
-node tests/production/two-instances.mjs || { tail -30 "$work"/instance-*.log; exit 1; }
+node tests/production/two-instances.mjs || { tail -n 30 "$work"/instance-*.log; exit 1; }

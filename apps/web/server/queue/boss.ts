@@ -43,24 +43,37 @@ export interface QueueOptions {
 }
 
 /**
- * Starts pg-boss on the handle: creates or migrates its schema (under pg-boss's own advisory
- * lock, so instances starting at once do it once) and the queues.
+ * Starts pg-boss on the handle: creates or migrates its schema and the queues. Instances started
+ * at once can race there (pg-boss checks its schema's version before it takes its advisory lock,
+ * so the second one may try to create what the first just made, and fail): a failed start is
+ * stopped and tried again, up to three times, by when the schema and queues are in place.
  */
 export async function startBoss(handle: DbHandle, options: QueueOptions = {}): Promise<PgBoss> {
   const supervise = options.supervise ?? true;
-  const boss = new PgBoss({
-    db: bossDatabase(handle.db),
-    schema: QUEUE_SCHEMA,
-    supervise,
-    schedule: supervise,
-    // Fewer background statements: on the embedded database every one takes the one connection.
-    monitorIntervalSeconds: 60,
-    maintenanceIntervalSeconds: 120,
-  });
-  boss.on('error', (error: Error) => console.error('[queue]', error.message));
-  await boss.start();
-  await createQueues(boss);
-  return boss;
+  for (let attempt = 1; ; attempt++) {
+    const boss = new PgBoss({
+      db: bossDatabase(handle.db),
+      schema: QUEUE_SCHEMA,
+      supervise,
+      schedule: supervise,
+      // Fewer background statements: on the embedded database every one takes the one connection.
+      monitorIntervalSeconds: 60,
+      maintenanceIntervalSeconds: 120,
+    });
+    boss.on('error', (error: Error) => console.error('[queue]', error.message));
+    try {
+      await boss.start();
+      await createQueues(boss);
+      return boss;
+    } catch (error) {
+      await boss.stop({ graceful: false, close: false }).catch(() => {});
+      if (attempt >= 3) throw error;
+      console.warn(
+        `[queue] starting the job queue failed (${error instanceof Error ? error.message : String(error)}); trying again`,
+      );
+      await new Promise((resolve) => setTimeout(resolve, 500 * attempt + Math.random() * 500));
+    }
+  }
 }
 
 async function createQueues(boss: PgBoss): Promise<void> {
