@@ -17,7 +17,7 @@ export interface AuditScore {
 }
 
 /**
- * Audit score (PRODUCT.md "Audit score"): 100 × Σ weight of passed items / Σ weight of
+ * Audit score (README, figures table): 100 × Σ weight of passed items / Σ weight of
  * applicable items (answered pass or fail). Any failed critical item makes the verdict
  * "critical miss" whatever the score; otherwise score ≥ passMark (default 85) "meets
  * standard", below it "needs work".

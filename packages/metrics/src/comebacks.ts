@@ -35,7 +35,7 @@ export interface ComebackRate {
 const DAY = 86_400_000;
 
 /**
- * Comeback rate (PRODUCT.md "Comeback rate"). Pass the jobs collected in the period.
+ * Comeback rate (README, figures table). Pass the jobs collected in the period.
  * A job is a trial when it was collected by `asOf` and either its warranty window
  * [collectedAt, collectedAt + warrantyDays × 24 h) has closed by `asOf`, or it already came
  * back (a comeback reported inside the window, by `asOf`, whatever its attribution). It is an

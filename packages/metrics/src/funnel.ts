@@ -51,7 +51,7 @@ export function funnelLimits(trials: number, targetRate: number, coverage: numbe
 
 /**
  * Fairness band of a shop's rate events/trials against the network rate, on funnel limits for
- * its own volume (PRODUCT.md "Fair comparison"): strictly outside the 99.8% limits is
+ * its own volume (README, figures table): strictly outside the 99.8% limits is
  * "out of line", else strictly outside the 95% limits is "on watch" (high or low), else
  * "in line". No trials gives "in line".
  */

@@ -4,7 +4,7 @@ export interface JobMoney {
   discountCents: number;
 }
 
-/** Billed revenue of a job in cents: labour + parts − discount (PRODUCT.md). */
+/** Billed revenue of a job in cents: labour + parts − discount (README, figures table). */
 export function billedRevenueCents(job: JobMoney): number {
   return job.labourCents + job.partsCents - job.discountCents;
 }

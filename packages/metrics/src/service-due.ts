@@ -32,7 +32,7 @@ function dayIn(year: number, [month, day]: [number, number]): number {
 }
 
 /**
- * Date the next service of a reel is due, "YYYY-MM-DD" (PRODUCT.md "Service due"; the
+ * Date the next service of a reel is due, "YYYY-MM-DD" (README, figures table; the
  * intervals are common shop practice, not from a published source):
  * - light use: about once a year, i.e. one year after the last service (29 Feb → 28 Feb);
  * - heavy use: at the start, middle and end of the season — the first of those dates strictly

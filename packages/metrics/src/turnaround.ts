@@ -20,7 +20,7 @@ export interface JobTurnaround {
 }
 
 /**
- * Turnaround of one job, in business minutes (PRODUCT.md "Turnaround"):
+ * Turnaround of one job, in business minutes (README, figures table):
  * customer = businessMinutes(checkedInAt, readyAt); waiting = business minutes inside the
  * waiting-on-parts spells, each clipped to [checkedInAt, readyAt) and merged where they
  * overlap so no minute counts twice; bench = customer − waiting.

@@ -60,7 +60,8 @@ const INSERT_ORDER: [keyof SeedData, PgTable][] = [
 ];
 
 /**
- * Seeds the demo network of PRODUCT.md into an empty database, in one transaction.
+ * Seeds the invented demo network (README, "Demo accounts") into an empty database, in one
+ * transaction.
  * Deterministic: the same seed, years and `now` give the same rows (see `seedDigest`); the
  * only chance comes from the seeded generator and the only clock is `now`.
  */

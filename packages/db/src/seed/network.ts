@@ -1,7 +1,7 @@
 import type { ReelKind, UserRole } from '../schema/enums';
 import type { OpeningHours } from '../schema/shops';
 
-// The invented "Saltwick & Spool Reel Care" network of PRODUCT.md. Every name is made up.
+// The invented "Saltwick & Spool Reel Care" demo network. Every name is made up.
 
 export const NETWORK_NAME = 'Saltwick & Spool Reel Care';
 
