@@ -9,6 +9,7 @@ import {
   problemResponse,
   unauthorized,
 } from './errors';
+import { answering } from './in-flight';
 import type { Principal } from './principal';
 import {
   appOrigins,
@@ -59,7 +60,10 @@ export function route<
 >(config: RouteConfig<P, Q, B>, act: (ctx: RouteContext<P, Q, B>) => Promise<unknown>) {
   const contentTypes = config.contentTypes ?? ['application/json'];
   const maxBodyBytes = config.maxBodyBytes ?? DEFAULT_MAX_BODY_BYTES;
-  return async (request: NextRequest, context: { params: Promise<Record<string, string>> }) => {
+  const handle = async (
+    request: NextRequest,
+    context: { params: Promise<Record<string, string>> },
+  ) => {
     let bodyExceeded = () => false;
     try {
       if (UNSAFE_METHODS.has(request.method)) {
@@ -119,6 +123,8 @@ export function route<
       );
     }
   };
+  return (request: NextRequest, context: { params: Promise<Record<string, string>> }) =>
+    answering(() => handle(request, context));
 }
 
 /** HSTS depends on the public URL at run time, so it is added here rather than in next.config. */

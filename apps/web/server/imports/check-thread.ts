@@ -12,7 +12,7 @@ import {
 
 /**
  * Under `next start` and `next dev`, in a worker thread at low priority (the bundler builds the
- * worker from check.worker.ts), its rows handed over a thousand at a time, each piece asked for
+ * worker from check.worker.ts), its rows handed over two hundred at a time, each piece asked for
  * once the last one is taken. Under the unit tests there is no bundled worker to start, and no
  * request waiting: the check runs in place.
  */

@@ -8,6 +8,7 @@ import {
   reels,
   shopMonthFigures,
 } from '@reelwright/db/schema';
+import { othersInFlight } from '../in-flight';
 import { yieldToEventLoop } from './prepare';
 
 // Sharing the web server's one embedded-database connection with other users' requests while an
@@ -19,20 +20,23 @@ const ROWS_PER_TURN = 2000;
 
 /** The longest the import waits for a quiet moment before its next chunk (it is never starved). */
 const GIVE_WAY_MAX_MS = 40;
-/** How long the database must stay free: a request between two of its queries is back by then. */
+/** How long the database must stay free and no request be in flight before a chunk is taken. */
 const QUIET_MS = 2;
 const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
 
 /**
- * Before each chunk, requests using or waiting for the embedded database go first (the web
- * server's PGlite has one connection; see `othersWaiting`): an import is background work.
+ * Before each chunk, requests being answered go first (the web server's PGlite has one
+ * connection; see `othersWaiting`): an import is background work. A request is waited for until
+ * it is done, not only while it holds the connection: between two of its queries it is working
+ * on the server's thread, and a chunk taken then would hold up its next query.
  */
 export async function giveWay(conn: Db) {
+  const busy = () => othersWaiting(conn) || othersInFlight() > 0;
   const until = performance.now() + GIVE_WAY_MAX_MS;
   while (performance.now() < until) {
-    if (!othersWaiting(conn)) {
+    if (!busy()) {
       await sleep(QUIET_MS);
-      if (!othersWaiting(conn)) return;
+      if (!busy()) return;
     } else {
       await sleep(1);
     }
